@@ -1,8 +1,10 @@
-import { z } from 'zod';
 import { decodeCanId } from './can-id';
 import { decodeDm1, PGN_DM1, type Dm1, type LampState, type Lamps } from './dm1';
 import { hexToBytes } from './hex';
+import { Dm1TrackerSnapshotSchema, type Dm1TrackerSnapshot, type TrackerCounts } from './dm1-tracker-snapshot';
 import { BamReassembler, PGN_TP_CM, PGN_TP_DT, type TransportEvent } from './transport';
+
+export type { Dm1TrackerSnapshot, TrackerCounts };
 
 /** One captured frame, in capture order. */
 export interface TrackerFrame {
@@ -38,54 +40,10 @@ export interface TrackerNotice {
   sourceAddress: number | null;
 }
 
-export interface TrackerCounts {
-  frames: number;
-  dm1Messages: number;
-  activations: number;
-  refused: Record<string, number>;
-  abandoned: Record<string, number>;
-  ignored: Record<string, number>;
-}
-
 export interface TrackerResult {
   activations: FaultActivation[];
   notices: TrackerNotice[];
 }
-
-const Address = z.number().int().min(0).max(255);
-const Count = z.record(z.string(), z.number().int().nonnegative());
-export const Dm1TrackerSnapshotSchema = z.object({
-  version: z.literal(1),
-  active: z.array(
-    z.object({
-      sourceAddress: Address,
-      dtcs: z.array(z.object({ spn: z.number().int().min(0).max(524287), fmi: z.number().int().min(0).max(31) })),
-    }),
-  ),
-  bam: z.array(
-    z.object({
-      sourceAddress: Address,
-      pgn: z.number().int().min(0).max(0x3ffff),
-      size: z.number().int().min(9).max(1785),
-      packets: z.number().int().min(2).max(255),
-      next: z.number().int().min(1).max(255),
-      lastT: z.number().finite(),
-      received: z.string().regex(/^(?:[0-9A-F]{2})*$/),
-    }).refine(
-      (b) => b.packets === Math.ceil(b.size / 7) && b.received.length / 2 === (b.next - 1) * 7 && b.received.length / 2 < b.size,
-      'open BAM session is not consistent (size, packets, next and received bytes disagree)',
-    ),
-  ),
-  counts: z.object({
-    frames: z.number().int().nonnegative(),
-    dm1Messages: z.number().int().nonnegative(),
-    activations: z.number().int().nonnegative(),
-    refused: Count,
-    abandoned: Count,
-    ignored: Count,
-  }),
-});
-export type Dm1TrackerSnapshot = z.infer<typeof Dm1TrackerSnapshotSchema>;
 
 const key = (spn: number, fmi: number) => `${spn}:${fmi}`;
 
