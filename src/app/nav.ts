@@ -1,0 +1,22 @@
+import type { Role } from '../lib/session-store';
+
+export interface NavItem {
+  to: string;
+  label: string;
+  /** Roles that see the link; omitted = every role. Must match the route's own guard. */
+  roles?: readonly Role[];
+  group: 'main' | 'admin';
+}
+
+// Add a page: register its route in router.tsx, then list it here. Only link pages that exist.
+export const NAV_ITEMS: readonly NavItem[] = [
+  { to: '/units', label: 'Units', group: 'main' },
+  { to: '/admin/users', label: 'Users', roles: ['admin'], group: 'admin' },
+  { to: '/admin/units', label: 'Units & profiles', roles: ['admin'], group: 'admin' },
+  { to: '/admin/gateways', label: 'Gateways', roles: ['admin'], group: 'admin' },
+  { to: '/admin/audit', label: 'Audit log', roles: ['admin'], group: 'admin' },
+];
+
+export function navFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {
+  return items.filter((i) => !i.roles || i.roles.includes(role));
+}

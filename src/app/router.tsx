@@ -1,0 +1,25 @@
+import { createBrowserRouter, Navigate, type RouteObject } from 'react-router-dom';
+import { AuthenticatedLayout } from './routes/authenticated-layout';
+import { NotFoundPage } from './routes/not-found';
+import { RouteErrorPage } from './routes/route-error';
+import { SignInPage } from './routes/sign-in';
+
+// Pages behind sign-in. To add one: create src/app/routes/<name>.tsx exporting the page,
+// add an entry here (lazy, so each page is its own chunk), then add its link to nav.ts.
+// Admin pages wrap themselves in <RequireRole roles={['admin']}>.
+const appRoutes: RouteObject[] = [
+  { index: true, element: <Navigate to="/units" replace /> },
+  { path: 'units', lazy: () => import('./routes/units').then((m) => ({ Component: m.UnitsPage })) },
+  { path: 'admin/users', lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.AdminUsersPage })) },
+  { path: 'admin/units', lazy: () => import('./routes/admin/units').then((m) => ({ Component: m.AdminUnitsPage })) },
+  { path: 'admin/gateways', lazy: () => import('./routes/admin/gateways').then((m) => ({ Component: m.AdminGatewaysPage })) },
+  { path: 'admin/audit', lazy: () => import('./routes/admin/audit').then((m) => ({ Component: m.AdminAuditPage })) },
+  { path: '*', Component: NotFoundPage },
+];
+
+export function createRouter() {
+  return createBrowserRouter([
+    { path: '/sign-in', Component: SignInPage, errorElement: <RouteErrorPage /> },
+    { path: '/', Component: AuthenticatedLayout, errorElement: <RouteErrorPage />, children: appRoutes },
+  ]);
+}

@@ -1,0 +1,32 @@
+import { useQueryClient } from '@tanstack/react-query';
+import { Navigate, Outlet, useLocation } from 'react-router-dom';
+import { AppShell } from '../../components/layouts/app-shell';
+import { session, useSession } from '../../lib/session';
+import { useMe } from '../../features/auth/api/get-me';
+import { navFor } from '../nav';
+
+/** Everything behind sign-in: the shell with the role's navigation, or a redirect to /sign-in. */
+export function AuthenticatedLayout() {
+  const current = useSession();
+  const location = useLocation();
+  const qc = useQueryClient();
+  // Asks the server once whether the stored token still holds; a 401 ends the session.
+  useMe(current !== null);
+
+  if (!current) {
+    const next = location.pathname + location.search;
+    return <Navigate to={`/sign-in?next=${encodeURIComponent(next)}`} replace />;
+  }
+  return (
+    <AppShell
+      links={navFor(current.user.role)}
+      user={current.user}
+      onSignOut={() => {
+        session.clear('signedOut');
+        qc.clear();
+      }}
+    >
+      <Outlet />
+    </AppShell>
+  );
+}

@@ -1,0 +1,53 @@
+import { useSearchParams } from 'react-router-dom';
+import { CautionNote } from '../../components/ui/caution-note';
+import { ErrorNotice } from '../../components/ui/error-notice';
+import { Loading } from '../../components/ui/loading';
+import { PageHeader } from '../../components/ui/page-header';
+import { nextSort } from '../../lib/sort';
+import { useUnits } from '../../features/units/api/get-units';
+import { UnitsFilters } from '../../features/units/components/units-filters';
+import { UnitsTable } from '../../features/units/components/units-table';
+import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
+
+export function UnitsPage() {
+  const units = useUnits();
+  const [params, setParams] = useSearchParams();
+  const filters = readUnitFilters(params);
+  const setFilters = (f: UnitFilters) => setParams(writeUnitFilters(f), { replace: true });
+
+  const all = units.data ?? [];
+  // Recomputed only when the list or the address changes; the table's 1 s clock lives below this page.
+  const depots = depotsOf(all);
+  const shown = filterAndSortUnits(all, filters);
+
+  return (
+    <>
+      <PageHeader
+        title="Units"
+        description="Every unit's purge state, refreshed every 10 seconds."
+        actions={
+          units.data && (
+            <p className="self-center text-muted" aria-live="polite">
+              {shown.length === all.length ? `${all.length} units` : `${shown.length} of ${all.length} units`}
+            </p>
+          )
+        }
+      />
+      <UnitsFilters filters={filters} depots={depots} onChange={setFilters} />
+      {units.isPending && <Loading label="Loading units…" />}
+      {units.isError && <ErrorNotice title="Could not load the units" error={units.error} />}
+      {units.data && (
+        <>
+          {units.isRefetchError && <ErrorNotice title="Refreshing failed; showing the last list received" error={units.error} />}
+          <UnitsTable
+            units={shown}
+            fetchedAt={units.dataUpdatedAt}
+            sort={filters.sort}
+            onSortChange={(key) => setFilters({ ...filters, sort: nextSort(filters.sort, key) })}
+          />
+        </>
+      )}
+      <CautionNote className="mt-8" />
+    </>
+  );
+}
