@@ -1,0 +1,36 @@
+import type { JudgeInput, Judgement, UnitEvent } from './types';
+import { orderEvents } from './positions';
+import { judgeEpisodes, type JudgedEpisode } from './judge-episodes';
+import { fillFreezeExposure } from './freeze';
+import { finishState, foldEvents, type Fold } from './unit-state';
+import { assertJudgeInput } from './validate-input';
+
+export interface JudgedUnit {
+  ordered: UnitEvent[];
+  judged: JudgedEpisode[];
+}
+
+/** The shared first half of judging: validate, order and de-duplicate, find and settle the episodes. */
+export function judgeInternals(input: JudgeInput): JudgedUnit {
+  assertJudgeInput(input);
+  const ordered = orderEvents(input.events);
+  const judged = judgeEpisodes(ordered, input);
+  fillFreezeExposure(judged, ordered);
+  return { ordered, judged };
+}
+
+export function initialFold(input: JudgeInput): Fold {
+  return { base: input.context?.state ?? null, open: null };
+}
+
+/**
+ * Judges one unit's events in event time (gateway protocol, "The after-run purge"): every key-off
+ * episode among the events, in key-off order, and the unit's state at `now`. Pure: the same input
+ * always gives the same judgement. Events may come in any order and with duplicates.
+ */
+export function judgeUnit(input: JudgeInput): Judgement {
+  const { ordered, judged } = judgeInternals(input);
+  const fold = foldEvents(ordered, judged, input.profile.lossThresholdV, initialFold(input), 0, ordered.length, input.now);
+  const lastEventTs = ordered.length > 0 ? ordered[ordered.length - 1].ts : null;
+  return { episodes: judged.map((j) => j.episode), state: finishState(fold, lastEventTs, input.now) };
+}
