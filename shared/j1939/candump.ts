@@ -33,7 +33,6 @@ export function parseCandumpLine(line: string): Result<CandumpFrame> {
   const tm = TIME.exec(time);
   if (!tm) return refuse(`timestamp "${time}" is not (seconds.microseconds) with 6 digits of microseconds`);
   if (!IFACE.test(iface)) return refuse(`interface name "${iface}" is not valid`);
-  if (flag !== undefined && flag !== 'T' && flag !== 'R') return refuse(`unexpected trailing field "${flag}"`);
   if (frame.includes('##')) return refuse('CAN FD frame (ID##FLAGS DATA): J1939 here is classic CAN only');
   const hash = frame.indexOf('#');
   if (hash < 0) return refuse(`frame "${frame}" has no "#" between identifier and data`);
@@ -45,6 +44,7 @@ export function parseCandumpLine(line: string): Result<CandumpFrame> {
   if (raw > MAX_29_BIT) return refuse(`identifier ${idText} has bits above the 29th (error frame or flags), not a J1939 frame`);
   if (/^R/i.test(dataText)) return refuse('remote (RTR) frame carries no data');
   if (!DATA.test(dataText)) return refuse(`data "${dataText}" is not 0 to 8 bytes of hex`);
+  if (flag !== undefined && flag !== 'T' && flag !== 'R') return refuse(`unexpected trailing field "${flag}"`);
   const tUs = Number(tm[1]) * 1_000_000 + Number(tm[2]);
   if (!Number.isSafeInteger(tUs)) return refuse(`timestamp ${time} is too large to keep its microseconds exactly`);
   const parsed: CandumpFrame = { tUs, t: tUs / 1000, iface, id: idText.toUpperCase(), data: dataText.toUpperCase() };

@@ -25,7 +25,7 @@ describe('encoding a BAM', () => {
   it('writes the TP.CM_BAM and TP.DT frames as J1939-21 lays them out', () => {
     // SAE J1939-21: TP.CM control 32, size LSB first, packet count, 0xFF, PGN LSB first; TP.DT sequence + 7 bytes,
     // the last packet padded with 0xFF; TP.CM and TP.DT to global at priority 7.
-    const frames = encodeBam({ pgn: 65226, sourceAddress: 0x21, data: hexToBytes('000102030405060708').value as Uint8Array });
+    const frames = encodeBam({ pgn: 65226, sourceAddress: 0x21, data: Uint8Array.from([0, 1, 2, 3, 4, 5, 6, 7, 8]) });
     expect(frames).toEqual([
       { id: '1CECFF21', data: '20090002FFCAFE00' },
       { id: '1CEBFF21', data: '0100010203040506' },
