@@ -36,7 +36,8 @@ export interface TrackerNotice {
   kind: NoticeKind;
   code: string;
   reason: string;
-  t: number;
+  /** capture time of the frame concerned, epoch ms; null when the frame had no usable time */
+  t: number | null;
   sourceAddress: number | null;
 }
 
@@ -94,13 +95,13 @@ export class Dm1Tracker {
   push(frame: TrackerFrame): TrackerResult {
     const result: TrackerResult = { activations: [], notices: [] };
     this.tally.frames += 1;
-    const notice = (kind: NoticeKind, code: string, reason: string, t: number, sourceAddress: number | null) => {
+    const notice = (kind: NoticeKind, code: string, reason: string, t: number | null, sourceAddress: number | null) => {
       this.tally[kind][code] = (this.tally[kind][code] ?? 0) + 1;
       result.notices.push({ kind, code, reason, t, sourceAddress });
     };
     const t = frame?.t;
     if (typeof t !== 'number' || !Number.isFinite(t)) {
-      notice('refused', 'bad-frame', `capture time ${String(t)} is not a finite number of ms`, NaN, null);
+      notice('refused', 'bad-frame', `capture time ${String(t)} is not a finite number of ms`, null, null);
       return result;
     }
     const id = decodeCanId(frame.id);
