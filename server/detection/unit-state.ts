@@ -87,6 +87,7 @@ export function foldEvents(
         open = null;
       } else if (e.kind === 'telemetry' && e.key === 'on') {
         // A later boot's key-on ends an unsettled episode's hold on the state (it never settles it).
+        base = settledBase(open.episode, now);
         open = null;
       } else continue;
     }
