@@ -27,7 +27,7 @@ export function formatCelsius(c: number | null | undefined): string {
 }
 
 const dateTime = new Intl.DateTimeFormat(undefined, {
-  year: 'numeric', month: 'short', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit',
+  year: 'numeric', month: 'short', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit', hourCycle: 'h23',
 });
 
 export function formatDateTime(iso: string | null | undefined): string {

@@ -1,4 +1,5 @@
 import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Logo } from '../../components/ui/logo';
 import { SignInForm } from '../../features/auth/components/sign-in-form';
 import { session, useSession } from '../../lib/session';
 
@@ -25,9 +26,7 @@ export function SignInPage() {
     <main className="flex min-h-screen items-center justify-center px-4">
       <div className="w-full max-w-md">
         <div className="mb-8 text-center">
-          <svg viewBox="0 0 32 32" aria-hidden="true" className="mx-auto mb-3 h-12 w-12">
-            <path d="M9 7h14l-5.5 9L23 25H9l5.5-9z" fill="none" stroke="var(--color-caution)" strokeWidth="2.5" strokeLinejoin="round" />
-          </svg>
+          <Logo className="mx-auto mb-3 h-12 w-12" />
           <h1 className="text-4xl font-semibold tracking-tight">Afterwatch</h1>
           <p className="mt-2 text-muted">Key-off purges watched, isolators opened at the right time.</p>
         </div>

@@ -5,8 +5,10 @@ import { Loading } from '../../components/ui/loading';
 import { PageHeader } from '../../components/ui/page-header';
 import { nextSort } from '../../lib/sort';
 import { useUnits } from '../../features/units/api/get-units';
+import { StateSummary } from '../../features/units/components/state-summary';
 import { UnitsFilters } from '../../features/units/components/units-filters';
 import { UnitsTable } from '../../features/units/components/units-table';
+import { countStates } from '../../features/units/lib/count-states';
 import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
 
 export function UnitsPage() {
@@ -33,6 +35,13 @@ export function UnitsPage() {
           )
         }
       />
+      {units.data && (
+        <StateSummary
+          counts={countStates(filters.depot ? all.filter((u) => u.depot === filters.depot) : all)}
+          selected={filters.state}
+          onSelect={(state) => setFilters({ ...filters, state })}
+        />
+      )}
       <UnitsFilters filters={filters} depots={depots} onChange={setFilters} />
       {units.isPending && <Loading label="Loading units…" />}
       {units.isError && <ErrorNotice title="Could not load the units" error={units.error} />}

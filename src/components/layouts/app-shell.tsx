@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { NavLink } from 'react-router-dom';
 import { Button } from '../ui/button';
+import { Logo } from '../ui/logo';
 
 export interface ShellLink {
   to: string;
@@ -16,16 +17,14 @@ export interface AppShellProps {
 }
 
 const linkClass = ({ isActive }: { isActive: boolean }) =>
-  `rounded-md px-3 py-2 text-base font-medium transition-colors ${
-    isActive ? 'bg-raised text-fg shadow-[inset_0_-2px_0_var(--color-accent)]' : 'text-muted hover:bg-raised/60 hover:text-fg'
+  `rounded-md border-b-2 px-3 py-2 text-base font-medium transition-colors ${
+    isActive ? 'border-accent bg-raised text-fg' : 'border-transparent text-muted hover:bg-raised/60 hover:text-fg'
   }`;
 
 function Wordmark() {
   return (
     <span className="flex items-center gap-2.5 text-xl font-semibold tracking-tight">
-      <svg viewBox="0 0 32 32" aria-hidden="true" className="h-7 w-7">
-        <path d="M9 7h14l-5.5 9L23 25H9l5.5-9z" fill="none" stroke="var(--color-caution)" strokeWidth="2.5" strokeLinejoin="round" />
-      </svg>
+      <Logo />
       Afterwatch
     </span>
   );

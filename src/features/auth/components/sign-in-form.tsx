@@ -8,7 +8,7 @@ function loginErrorText(error: unknown): string {
   if (error instanceof ApiError) {
     if (error.code === 'invalid_credentials' || error.status === 401) return 'Wrong e-mail or password.';
     if (error.code === 'rate_limited' || error.status === 429)
-      return 'Too many sign-in attempts. Wait a few minutes, then try again.';
+      return error.message || 'Too many sign-in attempts. Wait a while, then try again.';
     return error.message;
   }
   return 'Sign-in failed. Try again.';

@@ -22,9 +22,9 @@ export function SecretDialog({ gateway, onClose }: { gateway: ProvisionedGateway
           <p role="alert" className="rounded-md border border-caution/50 bg-caution/10 px-3 py-2 font-medium text-fg">
             This secret is shown only now. It cannot be shown again: if it is lost, provision the gateway anew.
           </p>
-          <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-2">
+          <dl className="flex flex-col gap-1">
             <dt className="text-muted">Gateway id (MQTT client id and username)</dt>
-            <dd className="font-mono">{gateway.gatewayId}</dd>
+            <dd className="mb-3 font-mono text-lg">{gateway.gatewayId}</dd>
             <dt className="text-muted">Secret (MQTT password)</dt>
             <dd>
               <code className="block break-all rounded-md bg-raised px-3 py-2 font-mono text-lg select-all">{gateway.secret}</code>
