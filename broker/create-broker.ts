@@ -1,0 +1,77 @@
+// The embedded broker: aedes on a TCP port, with the protocol's rules as hooks passed in as functions.
+import { Aedes } from 'aedes';
+import { createServer, type Server, type Socket } from 'node:net';
+import type { Logger } from 'pino';
+import { createAuthenticate } from './hooks/authenticate';
+import { createAuthorizePublish } from './hooks/authorize-publish';
+import { createAuthorizeSubscribe } from './hooks/authorize-subscribe';
+import type { Accept, BrokerCounters, BrokerEvents, CheckCredential } from './types';
+
+export interface BrokerOptions extends BrokerEvents {
+  host: string;
+  port: number;
+  checkCredential: CheckCredential;
+  accept: Accept;
+  log: Logger;
+}
+
+export interface BrokerHandle {
+  broker: Aedes;
+  port: number;
+  counters: BrokerCounters;
+  isConnected(gatewayId: string): boolean;
+  /** Drops a gateway's connection and its cached credential (after revocation). */
+  revoke(gatewayId: string): void;
+  publish(topic: string, payload: string, opts: { qos: 0 | 1; retain: boolean }): Promise<void>;
+  close(): Promise<void>;
+}
+
+export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
+  const counters: BrokerCounters = { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0 };
+  const onRefuse = (id: string, reason: string) => opts.log.warn({ gatewayId: id, reason }, 'broker refused');
+  const auth = createAuthenticate(opts.checkCredential, counters, onRefuse);
+  const broker = await Aedes.createBroker({
+    authenticate: auth.authenticate as never,
+    authorizePublish: createAuthorizePublish(opts.accept, counters, onRefuse) as never,
+    authorizeSubscribe: createAuthorizeSubscribe(counters, onRefuse) as never,
+    concurrency: 1000,
+    queueLimit: 1000,
+  });
+  broker.on('clientReady', (c) => opts.onConnect?.(c.id));
+  broker.on('clientDisconnect', (c) => opts.onDisconnect?.(c.id));
+  broker.on('clientError', (c, err) => opts.log.debug({ gatewayId: c?.id, err: err.message }, 'client error'));
+  const sockets = new Set<Socket>();
+  const server: Server = createServer((socket) => {
+    socket.setNoDelay(true); // latency matters more than packet count here
+    sockets.add(socket);
+    socket.on('close', () => sockets.delete(socket));
+    broker.handle(socket);
+  });
+  await new Promise<void>((res, rej) => {
+    server.once('error', rej);
+    server.listen(opts.port, opts.host, () => res());
+  });
+  const addr = server.address();
+  const port = typeof addr === 'object' && addr ? addr.port : opts.port;
+  opts.log.info({ host: opts.host, port }, 'broker listening');
+  const clients = () => (broker as unknown as { clients: Record<string, { close(): void }> }).clients;
+  return {
+    broker,
+    port,
+    counters,
+    isConnected: (id) => Boolean(clients()[id]),
+    revoke(id) {
+      auth.forget(id);
+      clients()[id]?.close();
+    },
+    publish: (topic, payload, o) =>
+      new Promise((res, rej) =>
+        broker.publish({ cmd: 'publish', topic, payload: Buffer.from(payload), qos: o.qos, retain: o.retain, dup: false } as never, (err?: Error) => (err ? rej(err) : res())),
+      ),
+    async close() {
+      for (const s of sockets) s.destroy();
+      await new Promise<void>((res) => server.close(() => res()));
+      await new Promise<void>((res) => broker.close(() => res()));
+    },
+  };
+}

@@ -1,0 +1,22 @@
+export interface CredentialResult {
+  ok: boolean;
+  /** The service's own credential (an ingest worker or a tool of the service), not a gateway. */
+  service?: boolean;
+}
+export type CheckCredential = (username: string, password: string) => Promise<CredentialResult>;
+
+/** The service's ingest: resolves once the message is committed (or quarantined); rejects if it could not be. */
+export type Accept = (gatewayId: string, topic: string, payload: Buffer) => Promise<void>;
+
+export interface BrokerCounters {
+  authRefused: number;
+  publishRefused: number;
+  oversized: number;
+  subscribeRefused: number;
+  acceptFailed: number;
+}
+
+export interface BrokerEvents {
+  onConnect?(gatewayId: string): void;
+  onDisconnect?(gatewayId: string): void;
+}

@@ -1,0 +1,39 @@
+// The environment, parsed once. Nothing else reads process.env.
+import { z } from 'zod';
+
+const Bool = z.enum(['on', 'off', 'true', 'false', '1', '0']).transform((v) => v === 'on' || v === 'true' || v === '1');
+
+export const ConfigSchema = z.object({
+  NODE_ENV: z.string().default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  MQTT_HOST: z.string().default('127.0.0.1'),
+  MQTT_PORT: z.coerce.number().int().min(0).max(65535).default(1883),
+  MQTT_URL: z.string().url().optional(),
+  MQTT_SERVICE_USERNAME: z.string().default('afterwatch-service'),
+  MQTT_SERVICE_PASSWORD: z.string().optional(),
+  DATA_DIR: z.string().default('.data'),
+  DATABASE_URL: z.string().optional(),
+  ADMIN_EMAIL: z.string().email().default('admin@afterwatch.local'),
+  ADMIN_PASSWORD: z.string().min(8).default('change-me-now'),
+  DEMO: Bool.default(true),
+  JWT_SECRET: z.string().min(16).optional(),
+  JWT_TTL_SECONDS: z.coerce.number().int().min(60).default(12 * 3600),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
+  INGEST_BATCH_MAX: z.coerce.number().int().min(1).default(2000),
+  INGEST_BATCH_MS: z.coerce.number().int().min(0).default(15),
+});
+
+export type Config = z.infer<typeof ConfigSchema>;
+
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  // An empty value in .env means "not set".
+  const given = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ''));
+  const parsed = ConfigSchema.safeParse(given);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new Error(`Invalid configuration:\n${lines}`);
+  }
+  return parsed.data;
+}

@@ -1,0 +1,10 @@
+// Every migration, in order. Listed by hand so that the same code runs under tsx, vitest and a build.
+import type { Migration } from './types';
+import { migration as createUsers } from './20261202010000-create-users';
+import { migration as createUnits } from './20261202010100-create-units';
+import { migration as createGateways } from './20261202010200-create-gateways';
+import { migration as createAuditLog } from './20261202010300-create-audit-log';
+import { migration as createMessages } from './20261202020000-create-messages';
+import { migration as createEpisodes } from './20261202020100-create-episodes';
+
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes];

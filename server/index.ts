@@ -1,0 +1,24 @@
+// The service on its own: needs DATABASE_URL (npm start provides one). config -> db -> broker -> ingest -> http.
+import 'dotenv/config';
+import { loadConfig } from './config';
+import { startService } from './service';
+import { logger } from './lib/logger';
+
+const log = logger('main');
+
+async function main() {
+  const config = loadConfig();
+  const service = await startService(config, { staticDir: 'dist' });
+  const stop = async (signal: string) => {
+    log.info({ signal }, 'stopping');
+    await service.close().catch((err) => log.error({ err }, 'error while stopping'));
+    process.exit(0);
+  };
+  process.once('SIGINT', () => void stop('SIGINT'));
+  process.once('SIGTERM', () => void stop('SIGTERM'));
+}
+
+main().catch((err) => {
+  log.fatal({ err }, 'could not start');
+  process.exit(1);
+});

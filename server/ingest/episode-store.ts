@@ -1,0 +1,157 @@
+// Episodes, faults and the DM1 tracker's state: written in the batch's transaction, read back at start-up.
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Episode, EventPosition, UnitEvent } from '../detection/types';
+import type { FaultActivation } from '../../shared/j1939/dm1-tracker';
+import type { CanFrame } from '../../shared/protocol/messages';
+
+const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+
+export async function upsertEpisodes(sequelize: Sequelize, t: Transaction, unitId: string, episodes: Episode[]): Promise<Map<string, number>> {
+  const ids = new Map<string, number>();
+  if (!episodes.length) return ids;
+  const rows = episodes.map((e) => ({
+    unit_id: unitId, stream: e.keyOff.stream, boot: e.keyOff.boot, seq: e.keyOff.seq, key_off_at: iso(e.keyOff.ts),
+    purge_seconds: e.purgeSeconds, loss_threshold_v: e.lossThresholdV, outcome: e.outcome, settled_by: e.settledBy,
+    ended_at: iso(e.endedAt), seconds_into_purge: e.secondsIntoPurge, ambient_c: e.ambientC,
+    min_ambient_after_c: e.minAmbientAfterC, freeze_exposure: e.freezeExposure, next_key_on_at: iso(e.nextKeyOnAt),
+    evidence: e.evidence, final: e.final,
+  }));
+  const out = await sequelize.query<{ id: string; stream: number; boot: string; seq: string }>(
+    `INSERT INTO episodes (unit_id, stream, boot, seq, key_off_at, purge_seconds, loss_threshold_v, outcome, settled_by, ended_at,
+        seconds_into_purge, ambient_c, min_ambient_after_c, freeze_exposure, next_key_on_at, evidence, final)
+     SELECT unit_id, stream, boot, seq, key_off_at, purge_seconds, loss_threshold_v, outcome, settled_by, ended_at,
+        seconds_into_purge, ambient_c, min_ambient_after_c, freeze_exposure, next_key_on_at, evidence, final
+     FROM jsonb_to_recordset($1::jsonb) AS x(unit_id text, stream int, boot bigint, seq bigint, key_off_at timestamptz,
+        purge_seconds int, loss_threshold_v float8, outcome text, settled_by text, ended_at timestamptz, seconds_into_purge float8,
+        ambient_c float8, min_ambient_after_c float8, freeze_exposure text, next_key_on_at timestamptz, evidence jsonb, final boolean)
+     ON CONFLICT (unit_id, stream, boot, seq) DO UPDATE SET
+        outcome = EXCLUDED.outcome, settled_by = EXCLUDED.settled_by, ended_at = EXCLUDED.ended_at,
+        seconds_into_purge = EXCLUDED.seconds_into_purge, ambient_c = EXCLUDED.ambient_c,
+        min_ambient_after_c = EXCLUDED.min_ambient_after_c, freeze_exposure = EXCLUDED.freeze_exposure,
+        next_key_on_at = EXCLUDED.next_key_on_at, evidence = EXCLUDED.evidence, final = EXCLUDED.final, updated_at = now()
+     RETURNING id, stream, boot, seq`,
+    { bind: [JSON.stringify(rows)], type: QueryTypes.SELECT, transaction: t },
+  );
+  for (const r of out) ids.set(`${r.stream}/${Number(r.boot)}/${Number(r.seq)}`, Number(r.id));
+  return ids;
+}
+
+interface EpisodeRow {
+  id: string; stream: number; boot: string; seq: string; key_off_at: Date; purge_seconds: number; loss_threshold_v: number;
+  outcome: Episode['outcome']; settled_by: Episode['settledBy']; ended_at: Date | null; seconds_into_purge: number | null;
+  ambient_c: number | null; min_ambient_after_c: number | null; freeze_exposure: Episode['freezeExposure']; next_key_on_at: Date | null;
+  evidence: EventPosition | null; final: boolean;
+}
+
+const ms = (d: Date | null) => (d ? d.getTime() : null);
+
+export function episodeFromRow(r: EpisodeRow): { id: number; episode: Episode } {
+  return {
+    id: Number(r.id),
+    episode: {
+      keyOff: { stream: r.stream, boot: Number(r.boot), seq: Number(r.seq), ts: r.key_off_at.getTime() },
+      purgeSeconds: r.purge_seconds, lossThresholdV: r.loss_threshold_v, outcome: r.outcome, settledBy: r.settled_by,
+      endedAt: ms(r.ended_at), secondsIntoPurge: r.seconds_into_purge, ambientC: r.ambient_c, evidence: r.evidence,
+      final: r.final, minAmbientAfterC: r.min_ambient_after_c, freezeExposure: r.freeze_exposure, nextKeyOnAt: ms(r.next_key_on_at),
+    },
+  };
+}
+
+/** The unit's episodes from a position on (all when `from` is null), in key-off order. */
+export async function loadEpisodes(sequelize: Sequelize, unitId: string, from: EventPosition | null, t?: Transaction) {
+  const rows = await sequelize.query<EpisodeRow>(
+    `SELECT * FROM episodes WHERE unit_id = $1 AND ($2::int IS NULL OR (stream, boot, seq) >= ($2, $3, $4)) ORDER BY stream, boot, seq`,
+    { bind: [unitId, from?.stream ?? null, from?.boot ?? null, from?.seq ?? null], type: QueryTypes.SELECT, transaction: t },
+  );
+  return rows.map(episodeFromRow);
+}
+
+/** The latest episodes of a unit, newest first. */
+export async function latestEpisodes(sequelize: Sequelize, unitId: string, limit: number, t?: Transaction) {
+  const rows = await sequelize.query<EpisodeRow>(
+    `SELECT * FROM episodes WHERE unit_id = $1 ORDER BY stream DESC, boot DESC, seq DESC LIMIT $2`,
+    { bind: [unitId, limit], type: QueryTypes.SELECT, transaction: t },
+  );
+  return rows.map(episodeFromRow);
+}
+
+interface MessageRow { stream: number; boot: string; seq: string; kind: string; payload: Record<string, any>; received_at: Date }
+
+export function eventFromRow(r: MessageRow): { event: UnitEvent; frames: CanFrame[] | null; receivedAt: number } {
+  const p = r.payload;
+  const base = { stream: r.stream, boot: Number(r.boot), seq: Number(r.seq), ts: Date.parse(p.ts) };
+  let event: UnitEvent;
+  if (r.kind === 'telemetry') event = { kind: 'telemetry', ...base, key: p.key, supplyV: p.supplyV, ambientC: p.ambientC ?? null, ecmAwake: p.ecmAwake };
+  else if (r.kind === 'power') {
+    const prev = p.prevShutdown ? { ts: Date.parse(p.prevShutdown.ts), cause: p.prevShutdown.cause } : null;
+    event = { kind: 'power', ...base, event: p.event, supplyV: p.supplyV, prevShutdown: prev };
+  } else event = { kind: 'can', ...base };
+  return { event, frames: r.kind === 'can' ? p.frames : null, receivedAt: r.received_at.getTime() };
+}
+
+/** A unit's messages from a position on (or its last `tail` messages before `from` when tail is given). */
+export async function loadEvents(sequelize: Sequelize, unitId: string, opts: { from?: EventPosition | null; kinds?: string[]; beforeTail?: number }, t?: Transaction) {
+  const kinds = opts.kinds ?? ['telemetry', 'power', 'can'];
+  const from = opts.from ?? null;
+  const sql = opts.beforeTail
+    ? `SELECT * FROM (SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
+         AND ($2::int IS NULL OR (stream, boot, seq) < ($2, $3, $4)) ORDER BY stream DESC, boot DESC, seq DESC LIMIT ${Number(opts.beforeTail)}) x
+       ORDER BY stream, boot, seq`
+    : `SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
+         AND ($2::int IS NULL OR (stream, boot, seq) >= ($2, $3, $4)) ORDER BY stream, boot, seq`;
+  const rows = await sequelize.query<MessageRow>(sql, {
+    bind: [unitId, from?.stream ?? null, from?.boot ?? null, from?.seq ?? null, kinds],
+    type: QueryTypes.SELECT,
+    transaction: t,
+  });
+  return rows.map(eventFromRow);
+}
+
+export async function insertFaults(sequelize: Sequelize, t: Transaction, unitId: string, faults: FaultActivation[]) {
+  if (!faults.length) return;
+  const rows = faults.map((f) => ({
+    unit_id: unitId, at: iso(f.at), source_address: f.sourceAddress, spn: f.spn, fmi: f.fmi,
+    conversion_method: f.conversionMethod, occurrence_count: f.occurrenceCount, lamps: f.lamps,
+  }));
+  await sequelize.query(
+    `INSERT INTO faults (unit_id, at, source_address, spn, fmi, conversion_method, occurrence_count, lamps)
+     SELECT * FROM jsonb_to_recordset($1::jsonb) AS x(unit_id text, at timestamptz, source_address int, spn int, fmi int,
+       conversion_method int, occurrence_count int, lamps jsonb)
+     ON CONFLICT DO NOTHING`,
+    { bind: [JSON.stringify(rows)], transaction: t },
+  );
+}
+
+export async function saveDm1State(sequelize: Sequelize, t: Transaction, unitId: string, snapshot: unknown, last: EventPosition) {
+  await sequelize.query(
+    `INSERT INTO unit_dm1_state (unit_id, snapshot, last_stream, last_boot, last_seq) VALUES ($1, $2::jsonb, $3, $4, $5)
+     ON CONFLICT (unit_id) DO UPDATE SET snapshot = EXCLUDED.snapshot, last_stream = EXCLUDED.last_stream,
+       last_boot = EXCLUDED.last_boot, last_seq = EXCLUDED.last_seq`,
+    { bind: [unitId, JSON.stringify(snapshot), last.stream, last.boot, last.seq], transaction: t },
+  );
+}
+
+export async function loadDm1State(sequelize: Sequelize, unitId: string) {
+  const rows = await sequelize.query<{ snapshot: unknown; last_stream: number; last_boot: string; last_seq: string }>(
+    `SELECT snapshot, last_stream, last_boot, last_seq FROM unit_dm1_state WHERE unit_id = $1`,
+    { bind: [unitId], type: QueryTypes.SELECT },
+  );
+  const r = rows[0];
+  return r ? { snapshot: r.snapshot, last: { stream: r.last_stream, boot: Number(r.last_boot), seq: Number(r.last_seq) } } : null;
+}
+
+/** Removes episodes that re-judging no longer finds (their faults keep their rows, unlinked). */
+export async function deleteEpisodes(sequelize: Sequelize, t: Transaction, ids: number[]) {
+  if (!ids.length) return;
+  await sequelize.query(`DELETE FROM episodes WHERE id = ANY($1::bigint[])`, { bind: [ids], transaction: t });
+}
+
+/** One boot's events and the next boot's (which carries its boot record). */
+export async function loadBootEvents(sequelize: Sequelize, unitId: string, stream: number, boot: number, t?: Transaction) {
+  const rows = await sequelize.query<MessageRow>(
+    `SELECT stream, boot, seq, kind, payload, received_at FROM messages
+     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3, $3 + 1) ORDER BY stream, boot, seq`,
+    { bind: [unitId, stream, boot], type: QueryTypes.SELECT, transaction: t },
+  );
+  return rows.map(eventFromRow);
+}

@@ -1,0 +1,41 @@
+// gateway id -> the unit it serves and its stream number, cached; the database is the source of truth.
+import { Gateway } from '../db/models/gateway';
+
+export interface GatewayEntry {
+  gatewayId: string;
+  unitId: string;
+  stream: number;
+  revoked: boolean;
+}
+
+export class GatewayDirectory {
+  private byId = new Map<string, GatewayEntry | null>();
+
+  async load() {
+    this.byId.clear();
+    for (const g of await Gateway.findAll()) this.byId.set(g.gatewayId, this.entry(g));
+  }
+
+  async get(gatewayId: string): Promise<GatewayEntry | null> {
+    if (this.byId.has(gatewayId)) return this.byId.get(gatewayId)!;
+    const g = await Gateway.findByPk(gatewayId);
+    const e = g ? this.entry(g) : null;
+    if (e) this.byId.set(gatewayId, e);
+    return e;
+  }
+
+  /** The stream a unit's gateway writes: used when events are loaded back from the database. */
+  streamsOf(unitId: string): GatewayEntry[] {
+    return [...this.byId.values()].filter((e): e is GatewayEntry => !!e && e.unitId === unitId);
+  }
+
+  async refresh(gatewayId?: string) {
+    if (!gatewayId) return this.load();
+    this.byId.delete(gatewayId);
+    await this.get(gatewayId);
+  }
+
+  private entry(g: Gateway): GatewayEntry {
+    return { gatewayId: g.gatewayId, unitId: g.unitId, stream: g.stream, revoked: Boolean(g.revokedAt) };
+  }
+}

@@ -1,0 +1,163 @@
+// The ingest: accept() -> group commit -> raw history + judgement + faults in one transaction -> announce.
+import type { Sequelize, Transaction } from 'sequelize';
+import type { Logger } from 'pino';
+import { GroupCommit } from './group-commit';
+import { GatewayDirectory } from './gateway-directory';
+import { createAccept, type IngestCounters } from './accept';
+import type { IngestItem, MessageItem, QuarantineItem } from './items';
+import { insertMessages, insertQuarantine, messageKey } from './store';
+import { judgeUnitInBatch } from './unit-judge';
+import { ingestCan, linkSpan, relinkFaults } from './unit-faults';
+import { unitNow, type UnitMemory } from './unit-memory';
+import { createFleetEvents, type EpisodeChange, type UnitChange } from './fleet-events';
+import { UnitBook } from './unit-book';
+import { positionKey } from '../detection/positions';
+import type { StatusMessage } from '../../shared/protocol/messages';
+
+export interface IngestOptions {
+  sequelize: Sequelize;
+  log: Logger;
+  batchMax: number;
+  batchMs: number;
+  wallNow?: () => number;
+}
+
+export function createIngest(opts: IngestOptions) {
+  const { sequelize, log } = opts;
+  const wallNow = opts.wallNow ?? Date.now;
+  const directory = new GatewayDirectory();
+  const events = createFleetEvents();
+  const counters: IngestCounters = { accepted: 0, duplicates: 0, quarantined: 0, quarantinedByReason: {} };
+  const judgeErrors = { count: 0 };
+  const connection = new Map<string, StatusMessage & { at: number }>();
+  const book = new UnitBook(sequelize, wallNow, log);
+
+  const batch = new GroupCommit<IngestItem>({ maxItems: opts.batchMax, maxAgeMs: opts.batchMs, flush });
+
+  async function flush(items: IngestItem[]) {
+    const messages = items.filter((i): i is MessageItem => i.type === 'message');
+    const quarantined = items.filter((i): i is QuarantineItem => i.type === 'quarantine');
+    const ticks = new Set(items.flatMap((i) => (i.type === 'tick' ? [i.unitId] : [])));
+    const outcome = await sequelize.transaction(async (t) => {
+      const fresh = await insertMessages(sequelize, t, messages);
+      await insertQuarantine(sequelize, t, quarantined);
+      const byUnit = new Map<string, MessageItem[]>();
+      const seen = new Set<string>();
+      for (const m of messages) {
+        const k = messageKey(m);
+        if (!fresh.has(k) || seen.has(k)) continue; // a duplicate: the first accepted copy already won
+        seen.add(k);
+        const list = byUnit.get(m.unitId) ?? [];
+        list.push(m);
+        byUnit.set(m.unitId, list);
+      }
+      const units = new Set([...byUnit.keys(), ...ticks]);
+      const next = new Map<string, UnitMemory>();
+      const episodeChanges: EpisodeChange[] = [];
+      for (const unitId of units) {
+        const mem = await book.get(unitId, t);
+        if (!mem) continue;
+        try {
+          await sequelize.query('SAVEPOINT unit_judge', { transaction: t });
+          const r = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
+          await sequelize.query('RELEASE SAVEPOINT unit_judge', { transaction: t });
+          next.set(unitId, r.memory);
+          episodeChanges.push(...r.changes);
+        } catch (err) {
+          // The raw messages are still committed; the unit is judged again with its next message.
+          await sequelize.query('ROLLBACK TO SAVEPOINT unit_judge', { transaction: t });
+          judgeErrors.count++;
+          log.error({ err, unitId }, 'judging a unit failed; its messages are stored');
+        }
+      }
+      return { fresh: fresh.size, next, episodeChanges };
+    });
+    counters.accepted += outcome.fresh;
+    counters.duplicates += messages.length - outcome.fresh;
+    const unitChanges: UnitChange[] = [];
+    for (const [unitId, mem] of outcome.next) {
+      const previous = book.peek(unitId);
+      book.set(unitId, mem);
+      unitChanges.push({ unitId, depot: mem.profile.depot, view: book.view(unitId), previous: previous?.state ?? null, state: mem.state });
+    }
+    if (unitChanges.length) events.emit('units', unitChanges);
+    if (outcome.episodeChanges.length) events.emit('episodes', outcome.episodeChanges);
+  }
+
+  async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]) {
+    const r = await judgeUnitInBatch(sequelize, t, mem, items.map((i) => ({ event: i.event, receivedAt: i.receivedAt })), wallNow());
+    const can = items.filter((i) => i.frames).map((i) => ({ position: i.event, frames: i.frames! }));
+    const faults = await ingestCan(sequelize, t, r.memory, can);
+    // Links can change where a fault arrived or where an interrupted episode changed (before or after).
+    const spans: [number, number][] = [];
+    if (faults.recomputed) spans.push([0, 8.64e15]);
+    for (const f of faults.activations) spans.push([f.at, f.at]);
+    for (const c of r.changed) {
+      for (const s of [linkSpan(c.episode), linkSpan(r.before.get(positionKey(c.episode.keyOff)))]) if (s) spans.push(s);
+    }
+    if (spans.length) {
+      const from = Math.min(...spans.map((s) => s[0]));
+      const to = Math.max(...spans.map((s) => s[1]));
+      await relinkFaults(sequelize, t, r.memory, from, to);
+    }
+    const changes: EpisodeChange[] = r.changed.map((c) => ({ unitId: mem.profile.unitId, id: c.id, episode: c.episode, before: r.before.get(positionKey(c.episode.keyOff)) ?? null }));
+    return { memory: r.memory, changes };
+  }
+
+  const accept = createAccept({
+    directory,
+    batch,
+    counters,
+    wallNow,
+    onStatus: (gatewayId, status) => connection.set(gatewayId, { ...status, at: wallNow() }),
+  });
+
+  let ticker: NodeJS.Timeout | null = null;
+  const ticking = new Set<string>();
+  function tick() {
+    const wall = wallNow();
+    for (const unitId of book.dueUnits(wall)) {
+      if (ticking.has(unitId)) continue;
+      ticking.add(unitId);
+      batch.add({ type: 'tick', unitId }).then(
+        () => ticking.delete(unitId),
+        (err) => {
+          ticking.delete(unitId);
+          log.warn({ err, unitId }, 'deadline re-judgement failed; retried next tick');
+        },
+      );
+    }
+  }
+
+  return {
+    accept,
+    events,
+    counters,
+    judgeErrors,
+    directory,
+    book,
+    connection,
+    async start() {
+      await directory.load();
+      await book.loadAll();
+      ticker = setInterval(tick, 250);
+      ticker.unref();
+    },
+    /** Re-judges a unit now (after a profile change), through the batch like any message. */
+    rejudge: (unitId: string) => batch.add({ type: 'tick', unitId }),
+    drain: () => batch.drain(),
+    get backlog() {
+      return batch.backlog;
+    },
+    unitNow: (unitId: string) => {
+      const m = book.peek(unitId);
+      return m ? unitNow(m, wallNow()) : wallNow();
+    },
+    async stop() {
+      if (ticker) clearInterval(ticker);
+      await batch.drain();
+    },
+  };
+}
+
+export type Ingest = ReturnType<typeof createIngest>;

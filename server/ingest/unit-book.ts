@@ -1,0 +1,150 @@
+// Every unit's memory, loaded lazily or at start-up from the database, and what the API reads of it.
+import type { Sequelize, Transaction } from 'sequelize';
+import type { Logger } from 'pino';
+import { Unit } from '../db/models/unit';
+import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
+import { KEY_ON_SILENCE_MS, SAFE_SILENCE_MS, SETTLE_GRACE_MS } from '../../shared/protocol/limits';
+import { judgeUnit } from '../detection/judge-unit';
+import { judgingWindow } from '../detection/window';
+import { comparePositions, orderEvents, positionKey } from '../detection/positions';
+import type { JudgeInput } from '../detection/types';
+import { emptyLiveUnitView, type LiveUnitView } from '../lib/context';
+import { latestEpisodes, loadDm1State, loadEvents } from './episode-store';
+import { newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
+
+const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+
+export const profileOf = (u: Unit): UnitProfile => ({
+  unitId: u.id, depot: u.depot, purgeSeconds: u.purgeSeconds, lossThresholdV: u.lossThresholdV, linkSpns: u.linkSpns,
+});
+
+export class UnitBook {
+  private units = new Map<string, UnitMemory>();
+  private tickedAt = new Map<string, number>();
+
+  constructor(private sequelize: Sequelize, private wallNow: () => number, private log: Logger) {}
+
+  peek(unitId: string) {
+    return this.units.get(unitId);
+  }
+
+  set(unitId: string, m: UnitMemory) {
+    this.units.set(unitId, m);
+  }
+
+  async get(unitId: string, t?: Transaction): Promise<UnitMemory | null> {
+    const m = this.units.get(unitId);
+    if (m) return m;
+    const unit = await Unit.findByPk(unitId, { transaction: t });
+    if (!unit) return null;
+    const rebuilt = await this.rebuild(profileOf(unit), t);
+    this.units.set(unitId, rebuilt);
+    return rebuilt;
+  }
+
+  async loadAll() {
+    for (const unit of await Unit.findAll()) {
+      try {
+        this.units.set(unit.id, await this.rebuild(profileOf(unit)));
+      } catch (err) {
+        this.log.error({ err, unitId: unit.id }, 'could not rebuild a unit from the database');
+      }
+    }
+  }
+
+  /** After a profile change: new purges use the new profile; stored episodes keep theirs. */
+  async refreshProfile(unitId: string) {
+    const unit = await Unit.findByPk(unitId);
+    if (!unit) return;
+    const m = this.units.get(unitId);
+    if (m) m.profile = profileOf(unit);
+    else await this.get(unitId);
+  }
+
+  /** Rebuilds a unit's memory: its still-open episodes (or the latest one) and the events from there on. */
+  async rebuild(profile: UnitProfile, t?: Transaction): Promise<UnitMemory> {
+    const m = newMemory(profile, this.wallNow());
+    const recent = (await latestEpisodes(this.sequelize, profile.unitId, 50, t)).reverse();
+    let anchor = recent.length ? recent[recent.length - 1] : null;
+    recent.forEach((s, i) => {
+      const freezeOpen = s.episode.outcome === 'interrupted' && !recent.slice(i + 1).some((l) => l.episode.outcome === 'completed');
+      if ((!s.episode.final || freezeOpen) && (!anchor || comparePositions(s.episode.keyOff, anchor.episode.keyOff) < 0)) anchor = s;
+    });
+    const from = anchor ? anchor.episode.keyOff : null;
+    const tail = await loadEvents(this.sequelize, profile.unitId, { from, beforeTail: from ? 3 : 20 }, t);
+    const rest = from ? await loadEvents(this.sequelize, profile.unitId, { from }, t) : [];
+    const rows = [...tail, ...rest];
+    if (rows.length === 0) return m;
+    for (const r of rows) {
+      if (m.lastTs === null || r.event.ts > m.lastTs) {
+        m.lastTs = r.event.ts;
+        m.lastArrival = r.receivedAt;
+      }
+      const e = r.event;
+      if (e.kind === 'telemetry') m.lastTelemetry = { position: { stream: e.stream, boot: e.boot, seq: e.seq }, supplyV: e.supplyV, ambientC: e.ambientC };
+    }
+    for (const s of recent) if (!from || comparePositions(s.episode.keyOff, from) >= 0) m.episodes.set(positionKey(s.episode.keyOff), s);
+    const input: JudgeInput = {
+      profile: { purgeSeconds: profile.purgeSeconds, lossThresholdV: profile.lossThresholdV },
+      events: orderEvents(rows.map((r) => r.event)),
+      previousEpisodes: [...m.episodes.values()].map((s) => s.episode),
+      now: unitNow(m, this.wallNow()),
+      context: null,
+    };
+    m.state = judgeUnit(input).state;
+    const win = judgingWindow(input);
+    m.windowStart = win.start;
+    m.context = win.context;
+    m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];
+    for (const [k, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(k);
+    const dm1 = await loadDm1State(this.sequelize, profile.unitId);
+    if (dm1) {
+      m.dm1 = Dm1Tracker.restore(dm1.snapshot);
+      m.lastCan = dm1.last;
+    }
+    return m;
+  }
+
+  /** The open (pending) episode's purge end C, if any. */
+  private openC(m: UnitMemory): number | null {
+    let c: number | null = null;
+    for (const { episode: e } of m.episodes.values()) {
+      if (e.outcome !== 'pending') continue;
+      const end = e.keyOff.ts + e.purgeSeconds * 1000;
+      c = c === null ? end : Math.max(c, end);
+    }
+    return c;
+  }
+
+  /** Units whose next time rule (C + 30 s, a silence limit) has come due by the unit's clock. */
+  dueUnits(wall: number): string[] {
+    const due: string[] = [];
+    for (const [unitId, m] of this.units) {
+      const c = this.openC(m);
+      let deadline: number | null = c !== null ? c + SETTLE_GRACE_MS : null;
+      if (m.lastTs !== null && m.state?.state === 'keyOn') deadline = Math.min(deadline ?? Infinity, m.lastTs + KEY_ON_SILENCE_MS);
+      if (m.lastTs !== null && m.state?.state === 'safeToIsolate') deadline = Math.min(deadline ?? Infinity, m.lastTs + SAFE_SILENCE_MS);
+      if (deadline === null || unitNow(m, wall) < deadline) continue;
+      if (this.tickedAt.get(unitId) === deadline) continue;
+      this.tickedAt.set(unitId, deadline);
+      due.push(unitId);
+    }
+    return due;
+  }
+
+  view(unitId: string): LiveUnitView {
+    const m = this.units.get(unitId);
+    if (!m) return emptyLiveUnitView;
+    const c = this.openC(m);
+    const now = unitNow(m, this.wallNow());
+    const remaining = m.state?.state === 'purging' && c !== null ? Math.max(0, Math.ceil((c - now) / 1000)) : null;
+    return {
+      state: m.state?.state ?? null,
+      stateSince: iso(m.state?.since ?? null),
+      purgeRemainingS: remaining,
+      lastSupplyV: m.lastTelemetry?.supplyV ?? null,
+      lastAmbientC: m.lastTelemetry?.ambientC ?? null,
+      lastSeenAt: iso(m.lastTs),
+    };
+  }
+}

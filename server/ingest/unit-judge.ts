@@ -1,0 +1,116 @@
+// Re-judges one unit inside the batch's transaction: merges new events into its window, writes the
+// episodes that changed, and returns the unit's next memory (swapped in after commit).
+import type { Sequelize, Transaction } from 'sequelize';
+import { judgeUnit } from '../detection/judge-unit';
+import { judgingWindow } from '../detection/window';
+import { comparePositions, orderEvents, positionKey } from '../detection/positions';
+import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
+import { cloneMemory, unitNow, type StoredEpisode, type UnitMemory } from './unit-memory';
+import { deleteEpisodes, loadBootEvents, loadEpisodes, upsertEpisodes } from './episode-store';
+
+export interface JudgeResult {
+  memory: UnitMemory;
+  /** Episodes inserted or changed, with their ids. */
+  changed: StoredEpisode[];
+  /** Changed episodes' previous versions (for fault relinking and alerts). */
+  before: Map<string, Episode>;
+}
+
+const same = (a: Episode, b: Episode) => JSON.stringify(a) === JSON.stringify(b);
+
+export async function judgeUnitInBatch(
+  sequelize: Sequelize,
+  t: Transaction,
+  current: UnitMemory,
+  fresh: { event: UnitEvent; receivedAt: number }[],
+  wallNow: number,
+): Promise<JudgeResult> {
+  const m = cloneMemory(current);
+  const unitId = m.profile.unitId;
+  for (const { event, receivedAt } of fresh) {
+    if (m.lastTs === null || event.ts > m.lastTs) {
+      m.lastTs = event.ts;
+      m.lastArrival = receivedAt;
+    }
+    if (event.kind === 'telemetry' && (!m.lastTelemetry || comparePositions(event, m.lastTelemetry.position) > 0)) {
+      m.lastTelemetry = { position: { stream: event.stream, boot: event.boot, seq: event.seq }, supplyV: event.supplyV, ambientC: event.ambientC };
+    }
+  }
+  const start = m.windowStart;
+  const inWindow = fresh.filter((f) => !start || comparePositions(f.event, start) >= 0).map((f) => f.event);
+  const before = fresh.filter((f) => start && comparePositions(f.event, start) < 0).map((f) => f.event);
+  const changed: StoredEpisode[] = [];
+  const previousVersions = new Map<string, Episode>();
+
+  const write = async (episodes: Episode[], stored: Map<string, StoredEpisode>) => {
+    const diff = episodes.filter((e) => {
+      const s = stored.get(positionKey(e.keyOff));
+      return !s || !same(s.episode, e);
+    });
+    const ids = await upsertEpisodes(sequelize, t, unitId, diff);
+    for (const e of diff) {
+      const key = positionKey(e.keyOff);
+      const old = stored.get(key);
+      if (old) previousVersions.set(key, old.episode);
+      const entry = { id: ids.get(key)!, episode: e };
+      stored.set(key, entry);
+      changed.push(entry);
+    }
+  };
+
+  const now = unitNow(m, wallNow);
+  const input: JudgeInput = {
+    profile: { purgeSeconds: m.profile.purgeSeconds, lossThresholdV: m.profile.lossThresholdV },
+    events: orderEvents([...m.events, ...inWindow]),
+    previousEpisodes: [...m.episodes.values()].map((s) => s.episode),
+    now,
+    context: m.context,
+  };
+  const judgement = judgeUnit(input);
+  const returned = new Set(judgement.episodes.map((e) => positionKey(e.keyOff)));
+  // A stored episode in the window whose key-off is no longer one (a late message filled a gap before it).
+  const gone = [...m.episodes.values()].filter((s) => !returned.has(positionKey(s.episode.keyOff)));
+  if (gone.length) {
+    await deleteEpisodes(sequelize, t, gone.map((g) => g.id));
+    for (const g of gone) m.episodes.delete(positionKey(g.episode.keyOff));
+  }
+  await write(judgement.episodes, m.episodes);
+  m.state = judgement.state;
+
+  // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
+  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write);
+
+  const win = judgingWindow(input);
+  m.windowStart = win.start;
+  m.context = win.context;
+  m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];
+  for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(key);
+  return { memory: m, changed, before: previousVersions };
+}
+
+async function judgeOldStretch(
+  sequelize: Sequelize,
+  t: Transaction,
+  m: UnitMemory,
+  late: UnitEvent[],
+  now: number,
+  write: (episodes: Episode[], stored: Map<string, StoredEpisode>) => Promise<void>,
+) {
+  const unitId = m.profile.unitId;
+  const boots = new Map<string, { stream: number; boot: number }>();
+  for (const e of late) boots.set(`${e.stream}/${e.boot}`, { stream: e.stream, boot: e.boot });
+  for (const { stream, boot } of boots.values()) {
+    // The boot's own events and the next boot's first messages (its boot record).
+    const events = (await loadBootEvents(sequelize, unitId, stream, boot, t)).map((r) => r.event);
+    const stored = new Map((await loadEpisodes(sequelize, unitId, { stream, boot, seq: 0 }, t)).filter((s) => s.episode.keyOff.boot === boot).map((s) => [positionKey(s.episode.keyOff), s]));
+    const j = judgeUnit({
+      profile: { purgeSeconds: m.profile.purgeSeconds, lossThresholdV: m.profile.lossThresholdV },
+      events,
+      previousEpisodes: [...stored.values()].map((s) => s.episode),
+      now,
+      context: null,
+    });
+    const outside = j.episodes.filter((e) => e.keyOff.boot === boot && (!m.windowStart || comparePositions(e.keyOff, m.windowStart) < 0));
+    await write(outside, stored);
+  }
+}

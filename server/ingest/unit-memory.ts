@@ -1,0 +1,53 @@
+// What the ingest keeps in memory per unit: the judging window (events, context), the stored episodes
+// inside it, the DM1 tracker, the last readings and the state. The database is the source of truth;
+// all of this is rebuilt from it at start-up.
+import type { Episode, EventPosition, JudgeContext, Profile, UnitEvent, UnitState } from '../detection/types';
+import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
+
+export interface StoredEpisode {
+  id: number;
+  episode: Episode;
+}
+
+export interface UnitProfile extends Profile {
+  unitId: string;
+  depot: string;
+  linkSpns: number[] | null;
+}
+
+export interface UnitMemory {
+  profile: UnitProfile;
+  /** Events with position >= windowStart, ordered. */
+  events: UnitEvent[];
+  windowStart: EventPosition | null;
+  context: JudgeContext | null;
+  /** Stored episodes with key-off >= windowStart, by position key. */
+  episodes: Map<string, StoredEpisode>;
+  state: UnitState | null;
+  /** Latest event time seen, and the wall time at which it arrived: the unit's clock runs on from there. */
+  lastTs: number | null;
+  lastArrival: number;
+  lastTelemetry: { position: EventPosition; supplyV: number; ambientC: number | null } | null;
+  dm1: Dm1Tracker;
+  lastCan: EventPosition | null;
+}
+
+export function newMemory(profile: UnitProfile, wallNow: number): UnitMemory {
+  return {
+    profile, events: [], windowStart: null, context: null, episodes: new Map(), state: null,
+    lastTs: null, lastArrival: wallNow, lastTelemetry: null, dm1: new Dm1Tracker(), lastCan: null,
+  };
+}
+
+/** A copy to work on inside a transaction; swapped in only after commit. */
+export function cloneMemory(m: UnitMemory): UnitMemory {
+  return { ...m, events: m.events.slice(), episodes: new Map(m.episodes), dm1: Dm1Tracker.restore(m.dm1.snapshot()) };
+}
+
+/**
+ * The unit's clock: event time, running on in wall time since the latest message arrived. Live, it is
+ * the gateway's clock; in a fast replay it follows the replayed events, so "C + 30 s" means the same.
+ */
+export function unitNow(m: UnitMemory, wallNow: number): number {
+  return m.lastTs === null ? wallNow : m.lastTs + Math.max(0, wallNow - m.lastArrival);
+}

@@ -1,0 +1,13 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
+    globalSetup: ['tests/global-setup.ts'],
+    testTimeout: 30_000,
+    hookTimeout: 120_000,
+    fileParallelism: true,
+    maxWorkers: 2,
+    pool: 'forks',
+  },
+});
