@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { navFor } from '../../src/app/nav';
+import { countStates } from '../../src/features/units/lib/count-states';
 import { remainingSeconds } from '../../src/features/units/lib/purge-countdown';
 import { LinkSpnsTextSchema, PurgeSecondsSchema } from '../../src/features/units/api/unit-input';
 import { formatCountdown, formatDuration } from '../../src/lib/format';
@@ -66,5 +67,12 @@ describe('navigation by role', () => {
   it('shows the admin pages to admins only', () => {
     expect(navFor('admin').map((i) => i.label)).toEqual(['Units', 'Users', 'Units & profiles', 'Gateways', 'Audit log']);
     for (const role of ['monitor', 'planner', 'technician'] as const) expect(navFor(role).map((i) => i.label)).toEqual(['Units']);
+  });
+});
+
+describe('counting units by state', () => {
+  it('counts every state, with units that have sent nothing under "none"', () => {
+    const counts = countStates([{ state: 'purging' }, { state: 'purging' }, { state: null }, { state: 'isolated' }]);
+    expect(counts).toEqual({ keyOn: 0, purging: 2, safeToIsolate: 0, isolated: 1, interrupted: 0, noContact: 0, none: 1 });
   });
 });

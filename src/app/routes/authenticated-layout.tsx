@@ -1,4 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
+import { useEffect } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { AppShell } from '../../components/layouts/app-shell';
 import { session, useSession } from '../../lib/session';
@@ -10,8 +11,14 @@ export function AuthenticatedLayout() {
   const current = useSession();
   const location = useLocation();
   const qc = useQueryClient();
-  // Asks the server once whether the stored token still holds; a 401 ends the session.
-  useMe(current !== null);
+  // Asks the server whether the stored token still holds (a 401 ends the session), and picks up
+  // a role or name an admin changed since sign-in, so the navigation matches what the server allows.
+  const me = useMe(current !== null);
+  useEffect(() => {
+    const u = me.data;
+    const s = session.get();
+    if (u && s && (u.role !== s.user.role || u.name !== s.user.name || u.email !== s.user.email)) session.set(s.token, u);
+  }, [me.data]);
 
   if (!current) {
     const next = location.pathname + location.search;

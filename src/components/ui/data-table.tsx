@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import type { SortState } from '../../lib/sort';
+import { PlainBody, VirtualBody, type BodyProps } from './data-table-body';
 
 export interface Column<T> {
   key: string;
@@ -32,7 +33,11 @@ function SortMark({ direction }: { direction: 'asc' | 'desc' | null }) {
 }
 
 /** A plain, legible table; sorting is controlled by the page (so it can live in the URL). */
+/** Above this many rows only the rows near the viewport are in the DOM (a wall of a whole fleet). */
+const VIRTUALIZE_ABOVE = 150;
+
 export function DataTable<T>({ columns, rows, rowKey, caption, sort, onSortChange, empty, rowClassName }: DataTableProps<T>) {
+  const bodyProps: BodyProps<T> = { columns, rows, rowKey, rowClassName };
   return (
     <div className="overflow-x-auto rounded-lg border border-line">
       <table className="w-full border-collapse text-left">
@@ -66,25 +71,19 @@ export function DataTable<T>({ columns, rows, rowKey, caption, sort, onSortChang
             })}
           </tr>
         </thead>
-        <tbody className="bg-panel">
-          {rows.length === 0 ? (
+        {rows.length === 0 ? (
+          <tbody className="bg-panel">
             <tr>
               <td colSpan={columns.length} className="px-4 py-10 text-center text-lg text-muted">
                 {empty ?? 'Nothing to show.'}
               </td>
             </tr>
-          ) : (
-            rows.map((row) => (
-              <tr key={rowKey(row)} className={`border-t border-line hover:bg-raised/60 ${rowClassName?.(row) ?? ''}`}>
-                {columns.map((c) => (
-                  <td key={c.key} className={`px-4 py-3 align-middle ${c.align === 'right' ? 'text-right' : ''} ${c.className ?? ''}`}>
-                    {c.cell(row)}
-                  </td>
-                ))}
-              </tr>
-            ))
-          )}
-        </tbody>
+          </tbody>
+        ) : rows.length > VIRTUALIZE_ABOVE ? (
+          <VirtualBody {...bodyProps} />
+        ) : (
+          <PlainBody {...bodyProps} />
+        )}
       </table>
     </div>
   );

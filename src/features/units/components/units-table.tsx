@@ -1,11 +1,9 @@
 import { DataTable, type Column } from '../../../components/ui/data-table';
-import { StateBadge } from '../../../components/ui/state-badge';
-import { formatCelsius, formatCountdown, formatDuration, formatVolts } from '../../../lib/format';
+import { formatCelsius, formatVolts } from '../../../lib/format';
 import type { SortState } from '../../../lib/sort';
-import { useNow } from '../../../lib/use-now';
-import { remainingSeconds } from '../lib/purge-countdown';
 import type { UnitSortKey } from '../lib/filter-units';
 import type { Unit } from '../types';
+import { TimeInStateCell, UnitStateCell } from './unit-time-cells';
 
 export interface UnitsTableProps {
   units: Unit[];
@@ -16,7 +14,6 @@ export interface UnitsTableProps {
 }
 
 export function UnitsTable({ units, fetchedAt, sort, onSortChange }: UnitsTableProps) {
-  const now = useNow(1000);
   const mono = 'font-mono tabular-nums';
   const columns: Column<Unit>[] = [
     { key: 'id', header: 'Unit', sortable: true, cell: (u) => <span className={`${mono} font-medium`}>{u.id}</span> },
@@ -26,16 +23,13 @@ export function UnitsTable({ units, fetchedAt, sort, onSortChange }: UnitsTableP
       key: 'state',
       header: 'State',
       sortable: true,
-      cell: (u) => {
-        const left = u.state === 'purging' ? remainingSeconds(u.purgeRemainingS, fetchedAt, now) : null;
-        return <StateBadge state={u.state} detail={left !== null ? `${formatCountdown(left)} left` : undefined} />;
-      },
+      cell: (u) => <UnitStateCell unit={u} fetchedAt={fetchedAt} />,
     },
     {
       key: 'timeInState',
       header: 'In state for',
       sortable: true,
-      cell: (u) => <span className={mono}>{u.stateSince ? formatDuration(now - Date.parse(u.stateSince)) : '—'}</span>,
+      cell: (u) => <TimeInStateCell since={u.stateSince} />,
     },
     { key: 'lastSupplyV', header: 'Supply', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatVolts(u.lastSupplyV)}</span> },
     { key: 'lastAmbientC', header: 'Ambient', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatCelsius(u.lastAmbientC)}</span> },
