@@ -17,7 +17,7 @@ export const migration: Migration = {
     });
   },
   async down(qi) {
-    await qi.dropTable('users');
+    await qi.dropTable('users', {});
     await qi.sequelize.query('DROP TYPE IF EXISTS "enum_users_role"');
   },
 };

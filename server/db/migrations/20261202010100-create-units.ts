@@ -20,6 +20,6 @@ export const migration: Migration = {
     await qi.addIndex('units', ['depot']);
   },
   async down(qi) {
-    await qi.dropTable('units');
+    await qi.dropTable('units', {});
   },
 };

@@ -19,6 +19,6 @@ export const migration: Migration = {
     await qi.addIndex('gateways', ['unit_id', 'stream'], { unique: true });
   },
   async down(qi) {
-    await qi.dropTable('gateways');
+    await qi.dropTable('gateways', {});
   },
 };

@@ -15,6 +15,6 @@ export const migration: Migration = {
     await qi.addIndex('audit_log', ['at']);
   },
   async down(qi) {
-    await qi.dropTable('audit_log');
+    await qi.dropTable('audit_log', {});
   },
 };
