@@ -21,6 +21,8 @@ export function AuthenticatedLayout() {
   }, [me.data]);
 
   if (!current) {
+    // After a deliberate sign-out the next person starts from the default page.
+    if (session.lastEndReason() === 'signedOut') return <Navigate to="/sign-in" replace />;
     const next = location.pathname + location.search;
     return <Navigate to={`/sign-in?next=${encodeURIComponent(next)}`} replace />;
   }
