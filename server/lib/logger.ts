@@ -1,15 +1,25 @@
 import { pino, type Logger } from 'pino';
 
-let root: Logger = pino({
+const root: Logger = pino({
   level: 'info',
   redact: { paths: ['password', 'secret', 'token', '*.password', '*.secret', '*.token', 'req.headers.authorization'], censor: '[redacted]' },
 });
+// Module loggers are made at import time, before the configuration is read: keep them to set their level later.
+const children = new Map<string, Logger>();
 
 export function configureLogger(level: string): Logger {
-  root = root.child({}, { level });
   root.level = level;
+  for (const child of children.values()) child.level = level;
   return root;
 }
 
-export const logger = (module: string): Logger => root.child({ module });
+export function logger(module: string): Logger {
+  let child = children.get(module);
+  if (!child) {
+    child = root.child({ module });
+    children.set(module, child);
+  }
+  return child;
+}
+
 export const rootLogger = () => root;
