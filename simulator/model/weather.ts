@@ -7,6 +7,8 @@ export interface WeatherOptions {
   meanC: number | null;
   /** Half the day/night swing, °C. */
   swingC: number;
+  /** A cold air mass: the air never warms above this, °C. */
+  capC?: number;
 }
 
 /** Day-of-year seasonal mean for a temperate inland site (invented curve: about 1 °C in mid-January, 17 °C in mid-July). */
@@ -41,7 +43,8 @@ export function createWeather(opts: WeatherOptions) {
     const d = dayIndexOf(ms);
     const t = (ms - d * DAY) / DAY;
     const offset = offsetFor(d, depot) * (1 - t) + offsetFor(d + 1, depot) * t;
-    return mean + diurnal + offset;
+    const v = mean + diurnal + offset;
+    return opts.capC === undefined ? v : Math.min(v, opts.capC);
   };
 }
 export type Weather = ReturnType<typeof createWeather>;

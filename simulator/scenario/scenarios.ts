@@ -12,7 +12,7 @@ export interface ScenarioDef {
   start: string | null;
   /** null: runs until stopped. */
   durationMs: number | null;
-  weather: { meanC: number | null; swingC: number };
+  weather: { meanC: number | null; swingC: number; capC?: number };
   coverage: { longGapP: number; shortGapP: number };
   driveScale: number;
   roundTheClock: boolean;
@@ -38,7 +38,7 @@ export const SCENARIOS: Record<ScenarioName, ScenarioDef> = {
   },
   'cold-snap': {
     ...base, name: 'cold-snap', summary: 'a working Wednesday in a cold snap, ambient below -11 °C all day',
-    start: '2026-12-09T03:00:00.000Z', durationMs: 24 * HOUR, weather: { meanC: -16, swingC: 3.5 },
+    start: '2026-12-09T03:00:00.000Z', durationMs: 24 * HOUR, weather: { meanC: -17, swingC: 3.5, capC: -13 },
   },
   'coverage-gaps': {
     ...base, name: 'coverage-gaps', summary: 'a working Tuesday with frequent loss of network coverage (store-and-forward)',
