@@ -23,6 +23,7 @@ export const ConfigSchema = z.object({
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
   INGEST_BATCH_MAX: z.coerce.number().int().min(1).default(2000),
   INGEST_BATCH_MS: z.coerce.number().int().min(0).default(15),
+  ALERT_ESCALATE_MINUTES: z.coerce.number().min(0.01).default(15),
 });
 
 export type Config = z.infer<typeof ConfigSchema>;

@@ -13,6 +13,17 @@ import { createIngest } from './ingest/ingest';
 import { createBroker, type BrokerHandle } from '../broker/create-broker';
 import { episodeRoutes } from './modules/episodes/routes';
 import { faultRoutes } from './modules/faults/routes';
+import { alertRoutes } from './modules/alerts/routes';
+import { startAlertEngine } from './modules/alerts/engine';
+import { switchAdminRoutes, switchPublicRoutes } from './modules/switch/routes';
+import { unitOfSwitchToken } from './modules/switch/service';
+import { readingRoutes } from './modules/readings/routes';
+import { recordStatus } from './modules/readings/service';
+import { startIndicators } from './realtime/indicator';
+import { indicatorView, startLiveFeed } from './realtime/live-feed';
+import { verifyToken } from './lib/middleware';
+import { loadActiveUser } from './modules/auth/service';
+import type { AlertView } from '../shared/realtime/envelope';
 
 export interface ServiceOptions {
   /** The built client to serve; none in API-only tests. */
@@ -27,6 +38,7 @@ export interface Service {
   ctx: AppContext;
   ingest: ReturnType<typeof createIngest>;
   broker: BrokerHandle;
+  alertsIdle(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -39,7 +51,16 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
   await migrate(db.sequelize);
   if (await ensureFirstAdmin(config.ADMIN_EMAIL, config.ADMIN_PASSWORD)) log.info({ email: config.ADMIN_EMAIL }, 'first admin created');
 
-  const ingest = createIngest({ sequelize: db.sequelize, log: logger('ingest'), batchMax: config.INGEST_BATCH_MAX, batchMs: config.INGEST_BATCH_MS, wallNow: opts.wallNow });
+  const ingest = createIngest({
+    sequelize: db.sequelize,
+    log: logger('ingest'),
+    batchMax: config.INGEST_BATCH_MAX,
+    batchMs: config.INGEST_BATCH_MS,
+    wallNow: opts.wallNow,
+    onStatus: (gatewayId, unitId, status) => {
+      recordStatus(db.sequelize, gatewayId, unitId, status.state, status.boot ?? null).catch((err) => log.warn({ err, gatewayId }, 'status not recorded'));
+    },
+  });
   await ingest.start();
 
   const broker = await createBroker({
@@ -64,6 +85,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
         await ingest.directory.load();
         await ingest.book.refreshProfile(id);
         await ingest.rejudge(id);
+        indicators.resend(id);
       },
       gatewayRevoked: async (id) => {
         await ingest.directory.refresh(id);
@@ -73,14 +95,44 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     },
   };
 
+  // The live feed is created after the HTTP server; routes publish through this late-bound reference.
+  let feed: ReturnType<typeof startLiveFeed> | null = null;
+  const publishAlert = (a: AlertView) => feed?.broadcast({ type: 'alert', alert: a });
+  const depotOf = (unitId: string) => ingest.book.peek(unitId)?.profile.depot ?? '';
   const app = createApp(ctx, {
     staticDir: opts.staticDir,
+    publicRoutes: [['/switch', switchPublicRoutes(ctx, (unitId) => indicatorView(ingest.book.view(unitId)))]],
     routes: [
+      ['/units', readingRoutes(ctx)],
       ['/episodes', episodeRoutes()],
       ['/faults', faultRoutes()],
+      ['/alerts', alertRoutes(ctx, publishAlert)],
+      ['/switch-pages', switchAdminRoutes(ctx, (unitId) => feed?.dropSwitch(unitId))],
     ],
   });
   const http: Server = createServer(app);
+  feed = startLiveFeed({
+    http,
+    events: ingest.events,
+    log: logger('live'),
+    verifyUser: async (token) => {
+      const user = await loadActiveUser(verifyToken(token, ctx.jwtSecret).id);
+      if (!user) throw new Error('inactive user');
+      return user;
+    },
+    switchUnit: (token) => unitOfSwitchToken(db.sequelize, token),
+    view: (unitId) => ingest.book.view(unitId),
+    depotOf,
+  });
+  const alerts = startAlertEngine({ sequelize: db.sequelize, events: ingest.events, log: logger('alerts'), escalateAfterMs: config.ALERT_ESCALATE_MINUTES * 60_000, publish: publishAlert });
+  const indicators = startIndicators({
+    events: ingest.events,
+    gatewayOf: (unitId) => ingest.directory.activeGatewayOf(unitId),
+    units: () => ingest.book.unitIds(),
+    view: (unitId) => ingest.book.view(unitId),
+    publish: (topic, payload) => broker.publish(topic, payload, { qos: 1, retain: true }),
+    log: logger('indicator'),
+  });
   await new Promise<void>((res, rej) => {
     http.once('error', rej);
     http.listen(config.PORT, config.HOST, () => res());
@@ -94,7 +146,10 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     ctx,
     ingest,
     broker,
+    alertsIdle: () => alerts.idle(),
     async close() {
+      feed?.close();
+      alerts.stop();
       await new Promise<void>((res) => http.close(() => res()));
       http.closeAllConnections?.();
       await broker.close();

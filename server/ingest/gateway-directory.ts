@@ -29,6 +29,12 @@ export class GatewayDirectory {
     return [...this.byId.values()].filter((e): e is GatewayEntry => !!e && e.unitId === unitId);
   }
 
+  /** The unit's gateway that is not revoked, if any. */
+  activeGatewayOf(unitId: string): string | null {
+    for (const e of this.byId.values()) if (e && e.unitId === unitId && !e.revoked) return e.gatewayId;
+    return null;
+  }
+
   async refresh(gatewayId?: string) {
     if (!gatewayId) return this.load();
     this.byId.delete(gatewayId);

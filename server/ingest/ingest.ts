@@ -20,6 +20,8 @@ export interface IngestOptions {
   batchMax: number;
   batchMs: number;
   wallNow?: () => number;
+  /** A gateway's status message (online, or its will: offline), for the connection view. */
+  onStatus?(gatewayId: string, unitId: string | null, status: StatusMessage): void;
 }
 
 export function createIngest(opts: IngestOptions) {
@@ -109,7 +111,10 @@ export function createIngest(opts: IngestOptions) {
     batch,
     counters,
     wallNow,
-    onStatus: (gatewayId, status) => connection.set(gatewayId, { ...status, at: wallNow() }),
+    onStatus: (gatewayId, status) => {
+      connection.set(gatewayId, { ...status, at: wallNow() });
+      void directory.get(gatewayId).then((gw) => opts.onStatus?.(gatewayId, gw?.unitId ?? null, status));
+    },
   });
 
   let ticker: NodeJS.Timeout | null = null;

@@ -24,6 +24,10 @@ export class UnitBook {
 
   constructor(private sequelize: Sequelize, private wallNow: () => number, private log: Logger) {}
 
+  unitIds(): string[] {
+    return [...this.units.keys()];
+  }
+
   peek(unitId: string) {
     return this.units.get(unitId);
   }

@@ -11,6 +11,7 @@ export const PERMISSIONS = {
   'gateways.manage': ['admin'],
   'users.manage': ['admin'],
   'audit.read': ['admin'],
+  'switch.manage': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

@@ -1,0 +1,165 @@
+// The live feed: a WebSocket endpoint on the web server. Signed-in users get the whole fleet; a switch
+// page gets its one unit's indicator. Unit changes are coalesced for a few tens of ms, then pushed.
+import type { IncomingMessage, Server } from 'node:http';
+import type { Duplex } from 'node:stream';
+import { WebSocketServer, type WebSocket } from 'ws';
+import type { Logger } from 'pino';
+import { ClientMessageSchema, LIVE_PATH, type IndicatorView, type ServerMessage, type UnitDelta } from '../../shared/realtime/envelope';
+import { indicatorFor } from '../../shared/protocol/indicator';
+import type { UnitStateName } from '../../shared/api/units';
+import type { LiveUnitView } from '../lib/context';
+import type { FleetEvents } from '../ingest/fleet-events';
+
+export interface LiveFeedDeps {
+  http: Server;
+  events: FleetEvents;
+  log: Logger;
+  /** Resolves a user's token; throws if it is not valid. */
+  verifyUser(token: string): Promise<unknown>;
+  /** Resolves a switch page's token to its unit, or null. */
+  switchUnit(token: string): Promise<string | null>;
+  view(unitId: string): LiveUnitView;
+  depotOf(unitId: string): string;
+  coalesceMs?: number;
+  heartbeatMs?: number;
+}
+
+interface Peer {
+  ws: WebSocket;
+  scope: 'fleet' | 'switch';
+  unitId: string | null;
+  alive: boolean;
+}
+
+export function toDelta(unitId: string, depot: string, v: LiveUnitView): UnitDelta {
+  return { id: unitId, depot, state: v.state as UnitDelta['state'], stateSince: v.stateSince, purgeRemainingS: v.purgeRemainingS, lastSupplyV: v.lastSupplyV, lastAmbientC: v.lastAmbientC, lastSeenAt: v.lastSeenAt };
+}
+
+export function indicatorView(v: LiveUnitView): IndicatorView {
+  const state = indicatorFor(v.state as UnitStateName | null) ?? 'unknown';
+  return { state, remainingS: v.state === 'purging' ? v.purgeRemainingS : null, rerunNeeded: v.state === 'interrupted', since: v.stateSince };
+}
+
+export function startLiveFeed(deps: LiveFeedDeps) {
+  const wss = new WebSocketServer({ noServer: true, maxPayload: 4096 });
+  const peers = new Set<Peer>();
+  const pending = new Set<string>();
+  let timer: NodeJS.Timeout | null = null;
+
+  const send = (p: Peer, msg: ServerMessage) => {
+    if (p.ws.readyState !== p.ws.OPEN) return;
+    if (p.ws.bufferedAmount > 4 * 1024 * 1024) return p.ws.terminate(); // a reader this far behind is gone
+    p.ws.send(JSON.stringify(msg));
+  };
+
+  const flush = () => {
+    timer = null;
+    const ids = [...pending];
+    pending.clear();
+    const sentAt = new Date().toISOString();
+    const units = ids.map((id) => toDelta(id, deps.depotOf(id), deps.view(id)));
+    const fleetMsg: ServerMessage = { type: 'units', sentAt, units };
+    for (const p of peers) {
+      if (p.scope === 'fleet') send(p, fleetMsg);
+      else if (p.unitId && ids.includes(p.unitId)) send(p, { type: 'switch', sentAt, unitId: p.unitId, indicator: indicatorView(deps.view(p.unitId)) });
+    }
+  };
+
+  deps.events.on('units', (changes) => {
+    for (const c of changes) pending.add(c.unitId);
+    if (!timer) timer = setTimeout(flush, deps.coalesceMs ?? 25);
+  });
+  deps.events.on('episodes', (changes) => {
+    const msg: ServerMessage = { type: 'episodes', unitIds: [...new Set(changes.map((c) => c.unitId))] };
+    for (const p of peers) if (p.scope === 'fleet') send(p, msg);
+  });
+
+  const refuse = (socket: Duplex, status: number, text: string) => {
+    socket.write(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Type: text/plain\r\n\r\n${text}\n`);
+    socket.destroy();
+  };
+
+  const onUpgrade = async (req: IncomingMessage, socket: Duplex, head: Buffer) => {
+    const url = new URL(req.url ?? '/', 'http://localhost');
+    if (url.pathname !== LIVE_PATH) return; // not ours (e.g. Vite's dev socket)
+    let scope: Peer['scope'];
+    let unitId: string | null = null;
+    try {
+      const switchToken = url.searchParams.get('switch');
+      if (switchToken) {
+        unitId = await deps.switchUnit(switchToken);
+        if (!unitId) return refuse(socket, 403, 'Forbidden');
+        scope = 'switch';
+      } else {
+        await deps.verifyUser(url.searchParams.get('token') ?? '');
+        scope = 'fleet';
+      }
+    } catch {
+      return refuse(socket, 401, 'Unauthorized');
+    }
+    wss.handleUpgrade(req, socket, head, (ws) => {
+      const peer: Peer = { ws, scope, unitId, alive: true };
+      peers.add(peer);
+      ws.on('pong', () => (peer.alive = true));
+      ws.on('close', () => peers.delete(peer));
+      ws.on('error', () => ws.terminate());
+      ws.on('message', (data) => {
+        const parsed = ClientMessageSchema.safeParse(safeJson(data.toString()));
+        if (!parsed.success) return ws.close(1003, 'unknown message');
+        if (parsed.data.type === 'resync') sendHello(peer);
+      });
+      sendHello(peer);
+    });
+  };
+
+  const sendHello = (p: Peer) => {
+    send(p, { type: 'hello', serverTime: new Date().toISOString(), scope: p.scope });
+    if (p.scope === 'switch' && p.unitId) send(p, { type: 'switch', sentAt: new Date().toISOString(), unitId: p.unitId, indicator: indicatorView(deps.view(p.unitId)) });
+  };
+
+  deps.http.on('upgrade', (req, socket, head) => {
+    onUpgrade(req, socket, head).catch((err) => {
+      deps.log.warn({ err }, 'live feed upgrade failed');
+      socket.destroy();
+    });
+  });
+
+  // Heartbeat: a socket that did not answer the last ping is dropped.
+  const heartbeat = setInterval(() => {
+    for (const p of peers) {
+      if (!p.alive) {
+        p.ws.terminate();
+        peers.delete(p);
+        continue;
+      }
+      p.alive = false;
+      p.ws.ping();
+    }
+  }, deps.heartbeatMs ?? 15_000);
+  heartbeat.unref();
+
+  return {
+    peers: () => peers.size,
+    broadcast(msg: ServerMessage) {
+      for (const p of peers) if (p.scope === 'fleet') send(p, msg);
+    },
+    /** Closes the switch pages of a unit whose token was revoked. */
+    dropSwitch(unitId: string) {
+      for (const p of peers) if (p.scope === 'switch' && p.unitId === unitId) p.ws.close(4003, 'revoked');
+    },
+    close() {
+      clearInterval(heartbeat);
+      if (timer) clearTimeout(timer);
+      for (const p of peers) p.ws.terminate();
+      wss.close();
+    },
+  };
+}
+
+function safeJson(s: string): unknown {
+  try {
+    return JSON.parse(s);
+  } catch {
+    return null;
+  }
+}
