@@ -30,7 +30,8 @@ export interface OutboxOptions {
  * first on reconnect) and the odd QoS 1 duplicate.
  */
 export class Outbox {
-  readonly entries: TimelineEntry[] = [];
+  private entries: TimelineEntry[] = [];
+  private lastSendAt = -Infinity;
   boot: number;
   private seq = 0;
   private booted = false;
@@ -43,6 +44,13 @@ export class Outbox {
 
   constructor(private readonly o: OutboxOptions) {
     this.boot = o.firstBoot;
+  }
+
+  /** Hands over the entries made since the last call. */
+  takeEntries(): TimelineEntry[] {
+    const out = this.entries;
+    this.entries = [];
+    return out;
   }
 
   get gatewayId(): string {
@@ -128,9 +136,9 @@ export class Outbox {
   }
 
   private push(e: TimelineEntry): void {
-    const last = this.entries[this.entries.length - 1];
     // A gateway's entries never go back in time (duplicates are released in time order).
-    if (last && e.sendAt < last.sendAt) e.sendAt = last.sendAt;
+    if (e.sendAt < this.lastSendAt) e.sendAt = this.lastSendAt;
+    this.lastSendAt = e.sendAt;
     this.entries.push(e);
   }
 }

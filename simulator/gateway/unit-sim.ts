@@ -40,9 +40,9 @@ export class UnitSim {
   pendingAfterInterrupt: { keyOffAt: string } | null = null;
   lastAmbientC: number | null = null;
   ending = false;
-  readonly keyOffs: OpenPurge[] = [];
-  readonly faults: FaultTruth[] = [];
-  readonly gaps: Gap[] = [];
+  keyOffs: OpenPurge[] = [];
+  faults: FaultTruth[] = [];
+  gaps: Gap[] = [];
   private nextSampleAt = Infinity;
   private nextDm1At = Infinity;
   private canBatch: FrameT[] = [];
@@ -196,6 +196,13 @@ export class UnitSim {
       this.faults.push({ unitId: this.unit.id, at: this.outbox.ts(a.at), sourceAddress: d.sa, spn: d.spn, fmi: d.fmi, occurrenceCount: d.occurrenceCount, linkedKeyOffAt: d.linkedKeyOffAt });
     }
     this.nextDm1At = this.t + SECOND;
+  }
+
+  /** A run without end keeps only recent history: drops what was settled before `t` (true time). */
+  forgetBefore(t: number): void {
+    this.keyOffs = this.keyOffs.filter((p) => p === this.purge || Date.parse(p.truth.trueKeyOffAt) >= t);
+    this.faults = this.faults.filter((f) => Date.parse(f.at) >= t);
+    this.gaps = this.gaps.filter((g) => g.to >= t);
   }
 
   keyOffTruths(): KeyOffTruth[] {

@@ -78,7 +78,7 @@ export class Sender {
     }
   }
 
-  private async waitUntil(sendAt: number, stop?: () => boolean): Promise<void> {
+  async waitUntil(sendAt: number, stop?: () => boolean): Promise<void> {
     while (!stop?.()) {
       const wait = this.wallAt(sendAt) - Date.now();
       if (wait <= 2) return;

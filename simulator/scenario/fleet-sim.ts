@@ -29,7 +29,6 @@ export class FleetSim {
   readonly fleet: UnitSpec[];
   readonly sims: UnitSim[];
   readonly ctx: SimContext;
-  private readonly cursors: number[];
 
   constructor(readonly opts: FleetSimOptions) {
     const def = SCENARIOS[opts.scenario];
@@ -49,7 +48,6 @@ export class FleetSim {
     };
     this.fleet = buildFleet({ units: opts.units ?? def.defaultUnits, seed, roundTheClock: def.roundTheClock });
     this.sims = this.fleet.map((u) => new UnitSim(this.ctx, u, opts.gateways?.get(u.id) ?? defaultAssignment(seed, u.id)));
-    this.cursors = this.sims.map(() => 0);
   }
 
   /** Simulates up to `until` and returns the entries made since the last call, in send order. */
@@ -69,12 +67,11 @@ export class FleetSim {
   }
 
   private take(): TimelineEntry[] {
-    const lists = this.sims.map((s, i) => {
-      const list = s.outbox.entries.slice(this.cursors[i]);
-      this.cursors[i] = s.outbox.entries.length;
-      return list;
-    });
-    return mergeTimelines(lists);
+    return mergeTimelines(this.sims.map((s) => s.outbox.takeEntries()));
+  }
+
+  forgetBefore(t: number): void {
+    for (const s of this.sims) s.forgetBefore(t);
   }
 
   /** The boot counter each gateway will use at its next power-up. */
