@@ -20,5 +20,6 @@ export function collapsedSupply(rng: Rng, unit: UnitSpec): number {
 /** Ambient air, °C to the half degree as a simple sensor reports it; undefined when the unit has none. */
 export function readAmbient(rng: Rng, unit: UnitSpec, weather: Weather, t: number): number | undefined {
   if (!unit.hasAmbientSensor) return undefined;
-  return Math.round((weather(t, unit.depot) + rng.normal(0, 0.3)) * 2) / 2;
+  const v = Math.round((weather(t, unit.depot) + rng.normal(0, 0.3)) * 2) / 2;
+  return v === 0 ? 0 : v; // no -0: JSON would write it as 0 anyway
 }

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { FleetSim } from '../../simulator/scenario/fleet-sim';
 import { generateScenario } from '../../simulator/scenario/generate';
 import { HOUR } from '../../simulator/core/time';
+import type { TimelineEntry } from '../../simulator/scenario/timeline';
 
 const digest = (v: unknown) => createHash('sha256').update(JSON.stringify(v)).digest('hex');
 
@@ -32,7 +33,7 @@ describe('the scenario generator is deterministic for a seed', () => {
   it('stepping the simulation hour by hour (as the live demo does) gives the same messages as one run', () => {
     const whole = generateScenario({ scenario: 'weekday', units: 5, seed: 'steps' });
     const sim = new FleetSim({ scenario: 'weekday', units: 5, seed: 'steps' });
-    const parts = [];
+    const parts: TimelineEntry[] = [];
     for (let t = sim.ctx.start + HOUR; t <= sim.ctx.end!; t += HOUR) parts.push(...sim.advance(t));
     parts.push(...sim.finish());
     const perGateway = (list: typeof parts) => {
