@@ -23,6 +23,9 @@ export const ConfigSchema = z.object({
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
   INGEST_BATCH_MAX: z.coerce.number().int().min(1).default(2000),
   INGEST_BATCH_MS: z.coerce.number().int().min(0).default(15),
+  // Behind an external broker: this worker's id (stable across restarts), and where Mosquitto's files live.
+  INGEST_WORKER_ID: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/).default('worker-1'),
+  MOSQUITTO_DIR: z.string().optional(),
   ALERT_ESCALATE_MINUTES: z.coerce.number().min(0.01).default(15),
 });
 
@@ -35,6 +38,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
     throw new Error(`Invalid configuration:\n${lines}`);
+  }
+  if (parsed.data.MQTT_URL && !parsed.data.MQTT_SERVICE_PASSWORD) {
+    throw new Error('Invalid configuration:\n  MQTT_SERVICE_PASSWORD: needed with MQTT_URL (the service signs in to the external broker with it)');
   }
   return parsed.data;
 }

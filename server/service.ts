@@ -8,9 +8,8 @@ import { resolveJwtSecret } from './lib/jwt-secret';
 import type { AppContext } from './lib/context';
 import { createApp } from './app';
 import { ensureFirstAdmin } from './modules/users/service';
-import { checkGatewayCredential } from './modules/gateways/credentials';
 import { createIngest } from './ingest/ingest';
-import { createBroker, type BrokerHandle } from '../broker/create-broker';
+import { openBrokerLink, type BrokerLink } from './broker-link';
 import { episodeRoutes } from './modules/episodes/routes';
 import { faultRoutes } from './modules/faults/routes';
 import { alertRoutes } from './modules/alerts/routes';
@@ -37,7 +36,7 @@ export interface Service {
   mqttPort: number;
   ctx: AppContext;
   ingest: ReturnType<typeof createIngest>;
-  broker: BrokerHandle;
+  broker: BrokerLink;
   alertsIdle(): Promise<void>;
   close(): Promise<void>;
 }
@@ -57,19 +56,14 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     batchMax: config.INGEST_BATCH_MAX,
     batchMs: config.INGEST_BATCH_MS,
     wallNow: opts.wallNow,
+    shared: Boolean(config.MQTT_URL),
     onStatus: (gatewayId, unitId, status) => {
       recordStatus(db.sequelize, gatewayId, unitId, status.state, status.boot ?? null).catch((err) => log.warn({ err, gatewayId }, 'status not recorded'));
     },
   });
   await ingest.start();
 
-  const broker = await createBroker({
-    host: config.MQTT_HOST,
-    port: config.MQTT_PORT,
-    log: logger('broker'),
-    checkCredential: async (username, password) => ({ ok: await checkGatewayCredential(username, password) }),
-    accept: ingest.accept,
-  });
+  const broker = await openBrokerLink(config, ingest.accept, logger('broker'));
 
   const ctx: AppContext = {
     config,
@@ -77,19 +71,20 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     jwtSecret: resolveJwtSecret(config.JWT_SECRET, config.DATA_DIR),
     health: [
       { name: 'db', check: async () => (await db.sequelize.query('SELECT 1'), true) },
-      { name: 'broker', check: async () => !broker.broker.closed },
+      { name: 'broker', check: async () => broker.healthy() },
     ],
     fleet: {
       unit: (id) => ingest.book.view(id),
       unitChanged: async (id) => {
         await ingest.directory.load();
+        await broker.gatewaysChanged();
         await ingest.book.refreshProfile(id);
         await ingest.rejudge(id);
         indicators.resend(id);
       },
       gatewayRevoked: async (id) => {
         await ingest.directory.refresh(id);
-        broker.revoke(id);
+        await broker.gatewaysChanged(id);
       },
       gatewayConnected: (id) => broker.isConnected(id),
     },

@@ -1,5 +1,5 @@
 // The ingest: accept() -> group commit -> raw history + judgement + faults in one transaction -> announce.
-import type { Sequelize, Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Logger } from 'pino';
 import { GroupCommit } from './group-commit';
 import { GatewayDirectory } from './gateway-directory';
@@ -20,6 +20,8 @@ export interface IngestOptions {
   batchMax: number;
   batchMs: number;
   wallNow?: () => number;
+  /** Several workers share the gateways' messages (external broker): serialise each unit's judging across them. */
+  shared?: boolean;
   /** A gateway's status message (online, or its will: offline), for the connection view. */
   onStatus?(gatewayId: string, unitId: string | null, status: StatusMessage): void;
 }
@@ -53,15 +55,23 @@ export function createIngest(opts: IngestOptions) {
         list.push(m);
         byUnit.set(m.unitId, list);
       }
-      const units = new Set([...byUnit.keys(), ...ticks]);
+      // Sorted, so that workers taking units' locks in one batch never deadlock one another.
+      const units = [...new Set([...byUnit.keys(), ...ticks])].sort();
       const next = new Map<string, UnitMemory>();
       const episodeChanges: EpisodeChange[] = [];
       for (const unitId of units) {
-        const mem = await book.get(unitId, t);
+        let mem = await book.get(unitId, t);
         if (!mem) continue;
         try {
           await sequelize.query('SAVEPOINT unit_judge', { transaction: t });
+          let version: number | null = null;
+          if (opts.shared) {
+            version = await claimUnit(t, unitId);
+            // Another worker judged this unit since our memory was made: start again from the database.
+            if (version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
+          }
           const r = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
+          if (version !== null) r.memory.version = version;
           await sequelize.query('RELEASE SAVEPOINT unit_judge', { transaction: t });
           next.set(unitId, r.memory);
           episodeChanges.push(...r.changes);
@@ -84,6 +94,16 @@ export function createIngest(opts: IngestOptions) {
     }
     if (unitChanges.length) events.emit('units', unitChanges);
     if (outcome.episodeChanges.length) events.emit('episodes', outcome.episodeChanges);
+  }
+
+  /** Locks the unit for this transaction and counts one more judgement of it; returns the new count. */
+  async function claimUnit(t: Transaction, unitId: string): Promise<number> {
+    await sequelize.query('SELECT pg_advisory_xact_lock(hashtext($1))', { bind: [unitId], transaction: t });
+    const [row] = await sequelize.query<{ judged_version: string }>(
+      'UPDATE units SET judged_version = judged_version + 1 WHERE id = $1 RETURNING judged_version',
+      { bind: [unitId], type: QueryTypes.SELECT, transaction: t },
+    );
+    return Number(row.judged_version);
   }
 
   async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]) {

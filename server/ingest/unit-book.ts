@@ -1,5 +1,5 @@
 // Every unit's memory, loaded lazily or at start-up from the database, and what the API reads of it.
-import type { Sequelize, Transaction } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Logger } from 'pino';
 import { Unit } from '../db/models/unit';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
@@ -68,6 +68,8 @@ export class UnitBook {
   /** Rebuilds a unit's memory: its still-open episodes (or the latest one) and the events from there on. */
   async rebuild(profile: UnitProfile, t?: Transaction): Promise<UnitMemory> {
     const m = newMemory(profile, this.wallNow());
+    const [v] = await this.sequelize.query<{ judged_version: string }>(`SELECT judged_version FROM units WHERE id = $1`, { bind: [profile.unitId], type: QueryTypes.SELECT, transaction: t });
+    m.version = Number(v?.judged_version ?? 0);
     const recent = (await latestEpisodes(this.sequelize, profile.unitId, 50, t)).reverse();
     let anchor = recent.length ? recent[recent.length - 1] : null;
     recent.forEach((s, i) => {

@@ -30,12 +30,14 @@ export interface UnitMemory {
   lastTelemetry: { position: EventPosition; supplyV: number; ambientC: number | null } | null;
   dm1: Dm1Tracker;
   lastCan: EventPosition | null;
+  /** units.judged_version this memory reflects: with several workers, a different one means another worker judged the unit since. */
+  version: number;
 }
 
 export function newMemory(profile: UnitProfile, wallNow: number): UnitMemory {
   return {
     profile, events: [], windowStart: null, context: null, episodes: new Map(), state: null,
-    lastTs: null, lastArrival: wallNow, lastTelemetry: null, dm1: new Dm1Tracker(), lastCan: null,
+    lastTs: null, lastArrival: wallNow, lastTelemetry: null, dm1: new Dm1Tracker(), lastCan: null, version: 0,
   };
 }
 

@@ -25,11 +25,11 @@ describe('the embedded broker enforces the protocol', () => {
   });
 
   it('refuses a wrong secret with "bad user name or password" and counts it', async () => {
-    const before = t.service.broker.counters.authRefused;
+    const before = t.service.broker.counters!.authRefused;
     const err = await connectGateway(t.mqttUrl, a.gatewayId, 'not-the-secret').catch((e) => e);
     expect(err).toBeInstanceOf(Error);
     expect(String(err.message)).toMatch(/Bad username or password|bad user/i);
-    expect(t.service.broker.counters.authRefused).toBe(before + 1);
+    expect(t.service.broker.counters!.authRefused).toBe(before + 1);
   });
 
   it('refuses a client id that differs from the user name', async () => {
@@ -47,21 +47,21 @@ describe('the embedded broker enforces the protocol', () => {
 
   it('closes the connection of a gateway that publishes under another gateway\'s id, and counts it', async () => {
     const gw = await connectGateway(t.mqttUrl, a.gatewayId, a.secret);
-    const before = t.service.broker.counters.publishRefused;
+    const before = t.service.broker.counters!.publishRefused;
     const wasClosed = closed(gw.client);
     gw.client.publish(uplinkTopic(b.gatewayId, 'telemetry'), JSON.stringify({ boot: 0, seq: 0, ts: '2026-11-27T17:02:11.250Z', key: 'on', supplyV: 12.6, ambientC: 1, ecmAwake: true }), { qos: 1 });
     await wasClosed;
-    expect(t.service.broker.counters.publishRefused).toBe(before + 1);
+    expect(t.service.broker.counters!.publishRefused).toBe(before + 1);
     await gw.end();
   });
 
   it('closes the connection of a gateway that publishes over 64 KiB', async () => {
     const gw = await connectGateway(t.mqttUrl, a.gatewayId, a.secret);
-    const before = t.service.broker.counters.oversized;
+    const before = t.service.broker.counters!.oversized;
     const wasClosed = closed(gw.client);
     gw.client.publish(uplinkTopic(a.gatewayId, 'telemetry'), 'x'.repeat(64 * 1024 + 1), { qos: 1 });
     await wasClosed;
-    expect(t.service.broker.counters.oversized).toBe(before + 1);
+    expect(t.service.broker.counters!.oversized).toBe(before + 1);
     await gw.end();
   });
 
@@ -76,11 +76,11 @@ describe('the embedded broker enforces the protocol', () => {
         }),
       );
     expect(await grant(indicatorTopic(a.gatewayId))).toBe(1);
-    const before = t.service.broker.counters.subscribeRefused;
+    const before = t.service.broker.counters!.subscribeRefused;
     expect(await grant(indicatorTopic(b.gatewayId))).toBe(128);
     expect(await grant('afterwatch/v1/gw/+/indicator')).toBe(128);
     expect(await grant('#')).toBe(128);
-    expect(t.service.broker.counters.subscribeRefused).toBe(before + 3);
+    expect(t.service.broker.counters!.subscribeRefused).toBe(before + 3);
     await gw.end();
   });
 });

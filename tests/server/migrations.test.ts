@@ -1,5 +1,6 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
+import { QueryTypes } from 'sequelize';
 import { inject } from 'vitest';
 import { connectDb, migrate, migrator } from '../../server/db/index';
 
@@ -21,13 +22,13 @@ describe('migrations', () => {
     await c.end();
     const db = await connectDb(adminUrl.replace(/\/postgres$/, `/${name}`));
     const tables = async () =>
-      (await db.sequelize.query(`SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`, { type: 'SELECT' as never }) as { tablename: string }[]).map((r) => r.tablename);
+      (await db.sequelize.query<{ tablename: string }>(`SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`, { type: QueryTypes.SELECT })).map((r) => r.tablename);
     await migrate(db.sequelize);
-    expect(await tables()).toEqual(['audit_log', 'episodes', 'faults', 'gateways', 'messages', 'quarantine', 'schema_migrations', 'unit_dm1_state', 'units', 'users']);
+    expect(await tables()).toEqual(['alerts', 'audit_log', 'episodes', 'faults', 'gateway_status_events', 'gateways', 'messages', 'quarantine', 'schema_migrations', 'switch_tokens', 'unit_dm1_state', 'units', 'users']);
     await migrator(db.sequelize).down({ to: 0 });
     expect(await tables()).toEqual(['schema_migrations']);
     await migrate(db.sequelize);
-    expect((await tables()).length).toBe(10);
+    expect((await tables()).length).toBe(13);
     await db.close();
   });
 });

@@ -7,5 +7,6 @@ import { migration as createAuditLog } from './20261202010300-create-audit-log';
 import { migration as createMessages } from './20261202020000-create-messages';
 import { migration as createEpisodes } from './20261202020100-create-episodes';
 import { migration as createAlerts } from './20261202030000-create-alerts';
+import { migration as addGatewayBrokerHash } from './20261202040000-add-gateway-broker-hash';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash];

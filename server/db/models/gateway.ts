@@ -4,6 +4,7 @@ export class Gateway extends Model {
   declare gatewayId: string;
   declare unitId: string;
   declare secretHash: string;
+  declare brokerHash: string | null;
   declare stream: number;
   declare revokedAt: Date | null;
   declare lastSeenAt: Date | null;
@@ -16,6 +17,7 @@ export class Gateway extends Model {
         gatewayId: { type: DataTypes.STRING(64), primaryKey: true },
         unitId: { type: DataTypes.STRING(64), allowNull: false },
         secretHash: { type: DataTypes.STRING(64), allowNull: false },
+        brokerHash: { type: DataTypes.TEXT, allowNull: true },
         stream: { type: DataTypes.INTEGER, allowNull: false },
         revokedAt: { type: DataTypes.DATE, allowNull: true },
         lastSeenAt: { type: DataTypes.DATE, allowNull: true },

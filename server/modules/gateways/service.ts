@@ -3,7 +3,7 @@ import { Unit } from '../../db/models/unit';
 import { conflict, notFound } from '../../lib/errors';
 import type { AuthUser } from '../../lib/middleware';
 import { recordAudit } from '../audit/service';
-import { hashGatewaySecret, newGatewaySecret } from './secrets';
+import { brokerPasswordHash, hashGatewaySecret, newGatewaySecret } from './secrets';
 
 export async function listGateways() {
   return Gateway.findAll({ order: [['unitId', 'ASC'], ['stream', 'ASC']] });
@@ -21,7 +21,7 @@ export async function provisionGateway(actor: AuthUser, gatewayId: string, unitI
     const stream = previous.reduce((m, g) => Math.max(m, g.stream + 1), 0);
     const active = previous.filter((g) => !g.revokedAt);
     for (const g of active) await g.update({ revokedAt: new Date() }, { transaction });
-    await Gateway.create({ gatewayId, unitId, secretHash: hashGatewaySecret(secret), stream }, { transaction });
+    await Gateway.create({ gatewayId, unitId, secretHash: hashGatewaySecret(secret), brokerHash: brokerPasswordHash(secret), stream }, { transaction });
     await recordAudit(actor, 'gateway.create', `gateway:${gatewayId}`, { unitId, replaced: active.map((g) => g.gatewayId) }, transaction);
     return active.map((g) => g.gatewayId);
   });

@@ -1,5 +1,6 @@
 // Real mqtt.js gateways -> the real broker -> PostgreSQL -> the episodes, faults and units API.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
 import { startTestService, type TestService } from '../../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../../helpers/gateway';
 import { MessageSeq } from '../../helpers/messages';
@@ -75,7 +76,7 @@ describe('ingest and judgement through the real broker', () => {
     const episodes = await get('/api/episodes?unitId=IN-3');
     expect(episodes).toHaveLength(1);
     expect(episodes[0]).toMatchObject({ outcome: 'completed', settledBy: 'ecmAsleep' });
-    const [q] = await t.service.ctx.sequelize.query(`SELECT gateway_id, topic, reason, excerpt FROM quarantine WHERE gateway_id = 'gw-IN-3' ORDER BY id`, { type: 'SELECT' as never }) as { reason: string; excerpt: string; topic: string }[];
+    const [q] = await t.service.ctx.sequelize.query<{ reason: string; excerpt: string; topic: string }>(`SELECT gateway_id, topic, reason, excerpt FROM quarantine WHERE gateway_id = 'gw-IN-3' ORDER BY id`, { type: QueryTypes.SELECT });
     expect(q.reason).toMatch(/not JSON/);
     expect(q.topic).toBe('afterwatch/v1/gw/gw-IN-3/telemetry');
     expect(q.excerpt).toContain('yesterday');
