@@ -1,7 +1,6 @@
 import { createRng, type Rng } from '../core/rng';
-import { DAY, MINUTE, SECOND, dayIndexOf } from '../core/time';
-import { gapsOfDay, type Gap } from '../model/coverage';
-import { planDay } from '../model/day-plan';
+import { MINUTE, SECOND, dayIndexOf } from '../core/time';
+import type { Gap } from '../model/coverage';
 import { newBattery, type BatteryState } from '../model/electrical';
 import type { FrameT } from './unit-types';
 import type { GatewayAssignment, UnitSpec } from '../model/fleet-types';
@@ -13,6 +12,7 @@ import { finalizeKeyOff, recordSettles, type OpenPurge } from './purge-record';
 import { readAmbient, readSupply } from './readings';
 import type { SimContext, SimEvent } from './sim-context';
 import { handleEvent } from './unit-events';
+import { planDayInto } from './unit-planning';
 
 const WARM_UP_MS = 36 * 60 * MINUTE;
 const AWAKE_PERIOD_MS = 5 * SECOND; // protocol: every 5 s while key on or ECM awake
@@ -65,10 +65,6 @@ export class UnitSim {
     this.queue.push({ at: ctx.start, type: 'start' });
   }
 
-  get running(): boolean {
-    return this.keyOn;
-  }
-
   /** Simulates up to (not including) `until`. */
   advance(until: number): void {
     for (;;) {
@@ -96,22 +92,7 @@ export class UnitSim {
 
   private plan(t: number): void {
     const horizon = dayIndexOf(t) + 2;
-    while (this.plannedThrough < horizon) {
-      const day = ++this.plannedThrough;
-      for (const c of planDay(this.ctx.plan, this.unit, day)) {
-        this.queue.push({ at: c.on - c.leadMs, type: 'preKeyOn' });
-        this.queue.push({ at: c.on, type: 'keyOn', off: c.off });
-        if (c.watchdogAt !== null) this.queue.push({ at: c.watchdogAt, type: 'watchdog' });
-        this.queue.push({ at: c.off, type: 'keyOff', isolation: c.isolation });
-      }
-      for (const g of gapsOfDay(this.ctx.coverage, this.unit.id, day)) {
-        const to = this.ctx.end === null ? g.to : Math.min(g.to, this.ctx.end - 30 * MINUTE);
-        if (to <= g.from || to <= this.ctx.start) continue;
-        this.queue.push({ at: g.from, type: 'gap', begins: true });
-        this.queue.push({ at: to, type: 'gap', begins: false });
-        this.gaps.push({ from: Math.max(g.from, this.ctx.start), to });
-      }
-    }
+    while (this.plannedThrough < horizon) planDayInto(this.ctx, this.unit, ++this.plannedThrough, this.queue, this.gaps);
   }
 
   /** A telemetry sample now (also on any change of key). */
@@ -209,5 +190,3 @@ export class UnitSim {
     return this.keyOffs.map(finalizeKeyOff);
   }
 }
-
-export const PLAN_DAY_MS = DAY;

@@ -1,5 +1,5 @@
 import { createRng, type Rng } from '../core/rng';
-import { DAY, HOUR, MINUTE, SECOND, dayStart, weekdayOf } from '../core/time';
+import { HOUR, MINUTE, SECOND, dayStart, weekdayOf } from '../core/time';
 import type { UnitSpec } from './fleet-types';
 
 export type IsolationHow = 'hasty' | 'afterSafe';
@@ -111,5 +111,3 @@ export function planDay(opts: PlanOptions, unit: UnitSpec, day: number): Cycle[]
   }
   return cycles;
 }
-
-export const PLAN_HORIZON_MS = DAY;
