@@ -13,7 +13,7 @@ function Row<T>({ row, columns, className, index, rowRef }: { row: T; columns: C
   return (
     <tr ref={rowRef} data-index={index} className={`border-t border-line hover:bg-raised/60 ${className}`}>
       {columns.map((c) => (
-        <td key={c.key} className={`px-4 py-3 align-middle ${c.align === 'right' ? 'text-right' : ''} ${c.className ?? ''}`}>
+        <td key={c.key} className={`whitespace-nowrap px-3 py-3 align-middle ${c.align === 'right' ? 'text-right' : ''} ${c.className ?? ''}`}>
           {c.cell(row)}
         </td>
       ))}

@@ -52,7 +52,7 @@ export function DataTable<T>({ columns, rows, rowKey, caption, sort, onSortChang
                   key={c.key}
                   scope="col"
                   aria-sort={active === 'asc' ? 'ascending' : active === 'desc' ? 'descending' : undefined}
-                  className={`px-4 py-3 font-semibold ${align}`}
+                  className={`whitespace-nowrap px-3 py-3 font-semibold ${align}`}
                 >
                   {c.sortable && onSortChange ? (
                     <button

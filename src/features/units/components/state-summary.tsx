@@ -35,7 +35,7 @@ export function StateSummary({ counts, selected, onSelect }: StateSummaryProps) 
               type="button"
               aria-pressed={active}
               onClick={() => onSelect(active ? null : s)}
-              className={`flex w-full flex-col gap-1 rounded-lg border bg-panel px-4 py-3 text-left transition-colors hover:bg-raised ${
+              className={`flex h-full w-full flex-col justify-between gap-1 rounded-lg border bg-panel px-4 py-3 text-left transition-colors hover:bg-raised ${
                 active ? 'border-accent ring-1 ring-accent' : 'border-line'
               } ${counts[s] === 0 ? 'opacity-60' : ''}`}
             >

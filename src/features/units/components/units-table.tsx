@@ -27,14 +27,14 @@ export function UnitsTable({ units, fetchedAt, sort, onSortChange }: UnitsTableP
     },
     {
       key: 'timeInState',
-      header: 'In state for',
+      header: 'In state',
       sortable: true,
       cell: (u) => <TimeInStateCell since={u.stateSince} />,
     },
     { key: 'lastSupplyV', header: 'Supply', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatVolts(u.lastSupplyV)}</span> },
     { key: 'lastAmbientC', header: 'Ambient', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatCelsius(u.lastAmbientC)}</span> },
     { key: 'systemVoltage', header: 'System', sortable: true, align: 'right', cell: (u) => <span className={mono}>{u.systemVoltage} V</span> },
-    { key: 'purgeSeconds', header: 'Purge time', sortable: true, align: 'right', cell: (u) => <span className={mono}>{u.purgeSeconds} s</span> },
+    { key: 'purgeSeconds', header: 'Purge', sortable: true, align: 'right', cell: (u) => <span className={mono}>{u.purgeSeconds} s</span> },
     {
       key: 'gatewayId',
       header: 'Gateway',

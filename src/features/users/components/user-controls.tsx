@@ -40,7 +40,7 @@ export function UserControls({ user, isSelf }: { user: User; isSelf: boolean }) 
         {isSelf && <span className="text-sm text-muted">(you)</span>}
       </div>
       {update.isError && (
-        <p role="alert" className="text-sm font-medium text-danger">
+        <p role="alert" className="max-w-sm whitespace-normal text-sm font-medium text-danger">
           {errorText(update.error)}
         </p>
       )}
