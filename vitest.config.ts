@@ -4,6 +4,7 @@ export default defineConfig({
   test: {
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
     globalSetup: ['tests/global-setup.ts'],
+    setupFiles: ['tests/setup-file.ts'],
     testTimeout: 30_000,
     hookTimeout: 120_000,
     fileParallelism: true,

@@ -26,6 +26,8 @@ export const ConfigSchema = z.object({
   // Behind an external broker: this worker's id (stable across restarts), and where Mosquitto's files live.
   INGEST_WORKER_ID: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/).default('worker-1'),
   MOSQUITTO_DIR: z.string().optional(),
+  // Raw gateway messages older than this are dropped, a month at a time.
+  MESSAGE_RETENTION_DAYS: z.coerce.number().int().min(31).default(400),
   ALERT_ESCALATE_MINUTES: z.coerce.number().min(0.01).default(15),
 });
 

@@ -3,6 +3,7 @@ import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Config } from './config';
 import { connectDb, migrate } from './db/index';
+import { maintainPartitions } from './db/partitions';
 import { configureLogger, logger } from './lib/logger';
 import { resolveJwtSecret } from './lib/jwt-secret';
 import type { AppContext } from './lib/context';
@@ -48,6 +49,10 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
 
   const db = await connectDb(config.DATABASE_URL, { poolMax: 10 });
   await migrate(db.sequelize);
+  const partitions = () => maintainPartitions(db.sequelize, { now: new Date(), retentionDays: config.MESSAGE_RETENTION_DAYS });
+  await partitions();
+  const partitionTimer = setInterval(() => partitions().catch((err) => log.warn({ err }, 'partition upkeep failed')), 6 * 3600_000);
+  partitionTimer.unref();
   if (await ensureFirstAdmin(config.ADMIN_EMAIL, config.ADMIN_PASSWORD)) log.info({ email: config.ADMIN_EMAIL }, 'first admin created');
 
   const ingest = createIngest({
@@ -143,6 +148,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     broker,
     alertsIdle: () => alerts.idle(),
     async close() {
+      clearInterval(partitionTimer);
       feed?.close();
       alerts.stop();
       await new Promise<void>((res) => http.close(() => res()));

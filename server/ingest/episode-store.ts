@@ -75,6 +75,7 @@ export async function latestEpisodes(sequelize: Sequelize, unitId: string, limit
   return rows.map(episodeFromRow);
 }
 
+// Ordered by position, then arrival: of two copies at one position the first received wins (protocol).
 interface MessageRow { stream: number; boot: string; seq: string; kind: string; payload: Record<string, any>; received_at: Date }
 
 export function eventFromRow(r: MessageRow): { event: UnitEvent; frames: CanFrame[] | null; receivedAt: number } {
@@ -95,10 +96,10 @@ export async function loadEvents(sequelize: Sequelize, unitId: string, opts: { f
   const from = opts.from ?? null;
   const sql = opts.beforeTail
     ? `SELECT * FROM (SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
-         AND ($2::int IS NULL OR (stream, boot, seq) < ($2, $3, $4)) ORDER BY stream DESC, boot DESC, seq DESC LIMIT ${Number(opts.beforeTail)}) x
-       ORDER BY stream, boot, seq`
+         AND ($2::int IS NULL OR (stream, boot, seq) < ($2, $3, $4)) ORDER BY stream DESC, boot DESC, seq DESC, received_at LIMIT ${Number(opts.beforeTail)}) x
+       ORDER BY stream, boot, seq, received_at`
     : `SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
-         AND ($2::int IS NULL OR (stream, boot, seq) >= ($2, $3, $4)) ORDER BY stream, boot, seq`;
+         AND ($2::int IS NULL OR (stream, boot, seq) >= ($2, $3, $4)) ORDER BY stream, boot, seq, received_at`;
   const rows = await sequelize.query<MessageRow>(sql, {
     bind: [unitId, from?.stream ?? null, from?.boot ?? null, from?.seq ?? null, kinds],
     type: QueryTypes.SELECT,
@@ -150,7 +151,7 @@ export async function deleteEpisodes(sequelize: Sequelize, t: Transaction, ids: 
 export async function loadBootEvents(sequelize: Sequelize, unitId: string, stream: number, boot: number, t?: Transaction) {
   const rows = await sequelize.query<MessageRow>(
     `SELECT stream, boot, seq, kind, payload, received_at FROM messages
-     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3, $3 + 1) ORDER BY stream, boot, seq`,
+     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3, $3 + 1) ORDER BY stream, boot, seq, received_at`,
     { bind: [unitId, stream, boot], type: QueryTypes.SELECT, transaction: t },
   );
   return rows.map(eventFromRow);

@@ -8,5 +8,6 @@ import { migration as createMessages } from './20261202020000-create-messages';
 import { migration as createEpisodes } from './20261202020100-create-episodes';
 import { migration as createAlerts } from './20261202030000-create-alerts';
 import { migration as addGatewayBrokerHash } from './20261202040000-add-gateway-broker-hash';
+import { migration as partitionMessages } from './20261202045000-partition-messages';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages];
