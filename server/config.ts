@@ -23,6 +23,7 @@ export const ConfigSchema = z.object({
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
   INGEST_BATCH_MAX: z.coerce.number().int().min(1).default(2000),
   INGEST_BATCH_MS: z.coerce.number().int().min(0).default(15),
+  INGEST_MAX_BACKLOG: z.coerce.number().int().min(100).default(20000),
   // Behind an external broker: this worker's id (stable across restarts), and where Mosquitto's files live.
   INGEST_WORKER_ID: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/).default('worker-1'),
   MOSQUITTO_DIR: z.string().optional(),

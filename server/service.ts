@@ -60,6 +60,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     log: logger('ingest'),
     batchMax: config.INGEST_BATCH_MAX,
     batchMs: config.INGEST_BATCH_MS,
+    maxBacklog: config.INGEST_MAX_BACKLOG,
     wallNow: opts.wallNow,
     shared: Boolean(config.MQTT_URL),
     onStatus: (gatewayId, unitId, status) => {

@@ -1,6 +1,7 @@
 // accept(gatewayId, topic, payload): the one entry of gateway traffic, for the embedded broker's hook and for
 // a subscriber behind an external broker. Resolves once the message is committed or quarantined.
 import { parseTopic } from '../../shared/protocol/topics';
+import { MAX_PAYLOAD_BYTES } from '../../shared/protocol/limits';
 import type { GatewayDirectory } from './gateway-directory';
 import type { GroupCommit } from './group-commit';
 import type { IngestItem } from './items';
@@ -21,6 +22,8 @@ export interface AcceptDeps {
   counters: IngestCounters;
   onStatus(gatewayId: string, status: StatusMessage): void;
   wallNow(): number;
+  /** At most this many messages wait for a commit; beyond it, accept() waits (and so does the PUBACK). */
+  maxBacklog: number;
 }
 
 /** The first words of a reason name its class, for counting ("invalid telemetry", "payload is not JSON"). */
@@ -43,6 +46,8 @@ export function createAccept(deps: AcceptDeps) {
       deps.onStatus(gatewayId, parsed.status);
       return;
     }
+    if (payload.length > MAX_PAYLOAD_BYTES) return quarantine(gatewayId, topic, `payload of ${payload.length} bytes is over ${MAX_PAYLOAD_BYTES}`, payload);
+    await deps.batch.room(deps.maxBacklog);
     const gw = await deps.directory.get(gatewayId);
     if (!gw) return quarantine(gatewayId, topic, 'gateway is not provisioned for any unit', payload);
     if (gw.revoked) return quarantine(gatewayId, topic, 'gateway has been revoked', payload);

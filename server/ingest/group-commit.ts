@@ -20,6 +20,7 @@ export class GroupCommit<T> {
   private timer: NodeJS.Timeout | null = null;
   private flushing: Promise<void> | null = null;
   private inFlight = 0;
+  private roomWaiters: { limit: number; resolve(): void }[] = [];
 
   constructor(private opts: GroupCommitOptions<T>) {}
 
@@ -34,6 +35,15 @@ export class GroupCommit<T> {
   /** Items waiting or being written. */
   get backlog() {
     return this.current.length + this.inFlight;
+  }
+
+  /**
+   * Backpressure: resolves once fewer than `limit` items wait or are being written. Callers hold back
+   * their PUBACK meanwhile, and aedes reads no more from a socket whose messages are unsettled.
+   */
+  room(limit: number): Promise<void> {
+    if (this.backlog < limit) return Promise.resolve();
+    return new Promise((resolve) => this.roomWaiters.push({ limit, resolve }));
   }
 
   /** Resolves when everything added so far is settled. */
@@ -62,6 +72,7 @@ export class GroupCommit<T> {
       } finally {
         this.inFlight = 0;
         this.flushing = null;
+        this.roomWaiters = this.roomWaiters.filter((w) => (this.backlog < w.limit ? (w.resolve(), false) : true));
         // What arrived during the write goes next, at once.
         if (this.current.length) this.cut();
       }

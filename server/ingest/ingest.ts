@@ -19,6 +19,7 @@ export interface IngestOptions {
   log: Logger;
   batchMax: number;
   batchMs: number;
+  maxBacklog?: number;
   wallNow?: () => number;
   /** Several workers share the gateways' messages (external broker): serialise each unit's judging across them. */
   shared?: boolean;
@@ -131,6 +132,7 @@ export function createIngest(opts: IngestOptions) {
     batch,
     counters,
     wallNow,
+    maxBacklog: opts.maxBacklog ?? 20_000,
     onStatus: (gatewayId, status) => {
       connection.set(gatewayId, { ...status, at: wallNow() });
       void directory.get(gatewayId).then((gw) => opts.onStatus?.(gatewayId, gw?.unitId ?? null, status));
