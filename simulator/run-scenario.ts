@@ -41,6 +41,7 @@ export async function runScenarioDetailed(opts: RunScenarioOptions): Promise<Run
   const dataDir = opts.dataDir ?? '.data';
   const def = SCENARIOS[opts.scenario];
   const units = opts.units ?? def.defaultUnits;
+  const began = Date.now();
   const api = new ApiClient(opts.apiUrl);
   await api.login(opts.adminEmail, opts.adminPassword);
   const storePath = gatewayStorePath(dataDir);
@@ -64,6 +65,7 @@ export async function runScenarioDetailed(opts: RunScenarioOptions): Promise<Run
   if (truthPath !== null) await writeTruth(truthPath, generated.truth);
   const t = generated.truth;
   const summary = formatSummary(sender.stats, Date.now() - started, {
+    'provisioning and generation': `${((started - began) / 1000).toFixed(1)} s`,
     scenario: `${opts.scenario} (${t.start} to ${t.end}), ${units} units, seed ${seed}`,
     'key-offs': t.keyOffs.length,
     interrupted: t.keyOffs.filter((k) => k.outcome === 'interrupted').length,

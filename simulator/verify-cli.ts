@@ -26,7 +26,7 @@ async function main(): Promise<number> {
     .object({
       api: z.string().url('--api must be a URL').default(defaultApiUrl(process.env)),
       faults: z.literal(true).optional(),
-      wait: z.string().regex(/^\d+$/, 'must be whole seconds').transform(Number).default(60),
+      wait: z.string().regex(/^\d+$/, "must be whole seconds").transform(Number).default(300),
     })
     .strict()
     .safeParse(named);

@@ -32,7 +32,7 @@ export class Sender {
   simNow: number;
 
   constructor(private readonly o: SenderOptions) {
-    this.slots = new Slots(o.totalInFlight ?? 4000);
+    this.slots = new Slots(o.totalInFlight ?? 16000);
     this.simNow = o.simStart;
   }
 
@@ -45,7 +45,7 @@ export class Sender {
       mqttUrl: this.o.mqttUrl,
       gatewayId,
       secret,
-      perClientLimit: this.o.perClientInFlight ?? (this.o.speed === 'max' ? 64 : 16),
+      perClientLimit: this.o.perClientInFlight ?? (this.o.speed === 'max' ? 128 : 16),
       slots: this.slots,
       rng: createRng(`${this.o.seed}/backoff/${gatewayId}`),
       stats: this.stats,
