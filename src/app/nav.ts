@@ -10,11 +10,14 @@ export interface NavItem {
 
 // Add a page: register its route in router.tsx, then list it here. Only link pages that exist.
 export const NAV_ITEMS: readonly NavItem[] = [
+  { to: '/board', label: 'Board', group: 'main' },
+  { to: '/alerts', label: 'Alerts', group: 'main' },
   { to: '/units', label: 'Units', group: 'main' },
   { to: '/admin/users', label: 'Users', roles: ['admin'], group: 'admin' },
   { to: '/admin/units', label: 'Units & profiles', roles: ['admin'], group: 'admin' },
   { to: '/admin/gateways', label: 'Gateways', roles: ['admin'], group: 'admin' },
   { to: '/admin/audit', label: 'Audit log', roles: ['admin'], group: 'admin' },
+  { to: '/admin/switch-sheet', label: 'Switch codes', roles: ['admin'], group: 'admin' },
 ];
 
 export function navFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {

@@ -1,5 +1,6 @@
-import { createBrowserRouter, Navigate, type RouteObject } from 'react-router-dom';
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { AuthenticatedLayout } from './routes/authenticated-layout';
+import { HomeRedirect } from './routes/home-redirect';
 import { NotFoundPage } from './routes/not-found';
 import { RouteErrorPage } from './routes/route-error';
 import { SignInPage } from './routes/sign-in';
@@ -8,7 +9,11 @@ import { SignInPage } from './routes/sign-in';
 // add an entry here (lazy, so each page is its own chunk), then add its link to nav.ts.
 // Admin pages wrap themselves in <RequireRole roles={['admin']}>.
 const appRoutes: RouteObject[] = [
-  { index: true, element: <Navigate to="/units" replace /> },
+  { index: true, element: <HomeRedirect /> },
+  { path: 'board', lazy: () => import('./routes/board').then((m) => ({ Component: m.BoardPage })) },
+  { path: 'alerts', lazy: () => import('./routes/alerts').then((m) => ({ Component: m.AlertsPage })) },
+  { path: 'units/:id', lazy: () => import('./routes/unit').then((m) => ({ Component: m.UnitPage })) },
+  { path: 'admin/switch-sheet', lazy: () => import('./routes/admin/switch-sheet').then((m) => ({ Component: m.AdminSwitchSheetPage })) },
   { path: 'units', lazy: () => import('./routes/units').then((m) => ({ Component: m.UnitsPage })) },
   { path: 'admin/users', lazy: () => import('./routes/admin/users').then((m) => ({ Component: m.AdminUsersPage })) },
   { path: 'admin/units', lazy: () => import('./routes/admin/units').then((m) => ({ Component: m.AdminUnitsPage })) },
@@ -20,6 +25,8 @@ const appRoutes: RouteObject[] = [
 export function createRouter() {
   return createBrowserRouter([
     { path: '/sign-in', Component: SignInPage, errorElement: <RouteErrorPage /> },
+    // The driver's page at the switch: no sign-in, outside the app shell.
+    { path: '/switch/:token', lazy: () => import('./routes/switch').then((m) => ({ Component: m.SwitchPage })), errorElement: <RouteErrorPage /> },
     { path: '/', Component: AuthenticatedLayout, errorElement: <RouteErrorPage />, children: appRoutes },
   ]);
 }

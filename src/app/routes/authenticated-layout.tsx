@@ -4,6 +4,9 @@ import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { AppShell } from '../../components/layouts/app-shell';
 import { session, useSession } from '../../lib/session';
 import { useMe } from '../../features/auth/api/get-me';
+import { LiveIndicator } from '../../components/ui/live-indicator';
+import { liveStatus, useFleetFeed } from '../../lib/live-feed';
+import { useStore } from '../../lib/live-store';
 import { navFor } from '../nav';
 
 /** Everything behind sign-in: the shell with the role's navigation, or a redirect to /sign-in. */
@@ -19,6 +22,9 @@ export function AuthenticatedLayout() {
     const s = session.get();
     if (u && s && (u.role !== s.user.role || u.name !== s.user.name || u.email !== s.user.email)) session.set(s.token, u);
   }, [me.data]);
+  // One fleet feed for every page behind sign-in; it writes into the query cache.
+  useFleetFeed(current?.token ?? null);
+  const status = useStore(liveStatus);
 
   if (!current) {
     // After a deliberate sign-out the next person starts from the default page.
@@ -30,6 +36,7 @@ export function AuthenticatedLayout() {
     <AppShell
       links={navFor(current.user.role)}
       user={current.user}
+      status={<LiveIndicator status={status} />}
       onSignOut={() => {
         session.clear('signedOut');
         qc.clear();

@@ -11,7 +11,7 @@ const endNotice = {
 
 /** Only same-site paths, so a crafted link cannot send someone elsewhere after sign-in. */
 function safeNext(next: string | null): string {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/units';
+  return next && next.startsWith('/') && !next.startsWith('//') ? next : '/';
 }
 
 export function SignInPage() {

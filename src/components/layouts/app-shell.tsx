@@ -13,6 +13,8 @@ export interface AppShellProps {
   links: ShellLink[];
   user: { name: string; email: string; role: string };
   onSignOut: () => void;
+  /** Shown beside the user, e.g. the live feed's connection indicator. */
+  status?: ReactNode;
   children: ReactNode;
 }
 
@@ -30,12 +32,12 @@ function Wordmark() {
   );
 }
 
-export function AppShell({ links, user, onSignOut, children }: AppShellProps) {
+export function AppShell({ links, user, onSignOut, status, children }: AppShellProps) {
   const main = links.filter((l) => l.group === 'main');
   const admin = links.filter((l) => l.group === 'admin');
   return (
     <div className="flex min-h-screen flex-col">
-      <header className="border-b border-line bg-panel">
+      <header className="border-b border-line bg-panel print:hidden">
         <div className="mx-auto flex max-w-[110rem] flex-wrap items-center gap-x-6 gap-y-2 px-6 py-3">
           <Wordmark />
           <nav aria-label="Main" className="flex flex-wrap items-center gap-1">
@@ -58,6 +60,7 @@ export function AppShell({ links, user, onSignOut, children }: AppShellProps) {
             )}
           </nav>
           <div className="ml-auto flex items-center gap-3">
+            {status}
             <span className="text-right leading-tight">
               <span className="block font-medium">{user.name}</span>
               <span className="block text-sm text-muted">

@@ -18,5 +18,6 @@ export const UnitSchema = z.object({
   lastAmbientC: z.number().nullable(),
   lastSeenAt: z.string().nullable(),
 });
-export type Unit = z.infer<typeof UnitSchema>;
+/** `receivedAt`: when the browser received these values (fetch or live delta), for the purge countdown. */
+export type Unit = z.infer<typeof UnitSchema> & { receivedAt?: number };
 export const UnitListSchema = z.array(UnitSchema);

@@ -23,7 +23,7 @@ export function UnitsTable({ units, fetchedAt, sort, onSortChange }: UnitsTableP
       key: 'state',
       header: 'State',
       sortable: true,
-      cell: (u) => <UnitStateCell unit={u} fetchedAt={fetchedAt} />,
+      cell: (u) => <UnitStateCell unit={u} fetchedAt={u.receivedAt ?? fetchedAt} />,
     },
     {
       key: 'timeInState',

@@ -1,0 +1,64 @@
+import { useMemo } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { CautionNote } from '../../components/ui/caution-note';
+import { ErrorNotice } from '../../components/ui/error-notice';
+import { Loading } from '../../components/ui/loading';
+import { PageHeader } from '../../components/ui/page-header';
+import { bannerAlerts, liveStatus } from '../../lib/live-feed';
+import { useStore } from '../../lib/live-store';
+import { useSession } from '../../lib/session';
+import { nextSort } from '../../lib/sort';
+import { AlertBanner } from '../../features/alerts/components/alert-banner';
+import { useUnits } from '../../features/units/api/get-units';
+import { BoardTable } from '../../features/units/components/board-table';
+import { StateSummary } from '../../features/units/components/state-summary';
+import { UnitsFilters } from '../../features/units/components/units-filters';
+import { countStates } from '../../features/units/lib/count-states';
+import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
+
+export function BoardPage() {
+  const live = useStore(liveStatus) === 'live';
+  // While the feed is live it writes every change into this cache; poll only when it is down.
+  const units = useUnits({ refetchInterval: live ? false : 10_000 });
+  const alerts = useStore(bannerAlerts);
+  const role = useSession()?.user.role;
+  const [params, setParams] = useSearchParams();
+  const filters = readUnitFilters(params);
+  const setFilters = (f: UnitFilters) => setParams(writeUnitFilters(f), { replace: true });
+
+  const all = units.data;
+  const depots = useMemo(() => depotsOf(all ?? []), [all]);
+  const filterKey = params.toString();
+  // `filters` is read from the address, so the address string stands for it here.
+  const shown = useMemo(() => filterAndSortUnits(all ?? [], filters), [all, filterKey]);
+  const counts = useMemo(() => countStates(filters.depot ? (all ?? []).filter((u) => u.depot === filters.depot) : (all ?? [])), [all, filters.depot]);
+  const names = useMemo(() => new Map((all ?? []).map((u) => [u.id, u.name])), [all]);
+
+  return (
+    <>
+      <AlertBanner alerts={alerts} canAct={role === 'admin' || role === 'monitor'} unitName={(id) => names.get(id)} />
+      <PageHeader
+        title="Board"
+        description="Every unit's purge state as it happens. Choose a state to show only those units."
+        actions={
+          all && (
+            <p className="self-center text-lg text-muted" aria-live="polite">
+              {shown.length === all.length ? `${all.length} units` : `${shown.length} of ${all.length} units`}
+            </p>
+          )
+        }
+      />
+      {all && <StateSummary counts={counts} selected={filters.state} onSelect={(state) => setFilters({ ...filters, state })} />}
+      <UnitsFilters filters={filters} depots={depots} onChange={setFilters} />
+      {units.isPending && <Loading label="Loading units…" />}
+      {units.isError && <ErrorNotice title="Could not load the units" error={units.error} />}
+      {all && (
+        <>
+          {units.isRefetchError && <ErrorNotice title="Refreshing failed; showing the last list received" error={units.error} />}
+          <BoardTable units={shown} sort={filters.sort} onSortChange={(key) => setFilters({ ...filters, sort: nextSort(filters.sort, key) })} />
+        </>
+      )}
+      <CautionNote className="mt-8" />
+    </>
+  );
+}
