@@ -60,13 +60,19 @@ export async function runDemo(o: RunDemoOptions): Promise<void> {
   o.log(`demo: ${units} trucks over ${new Set(sim.fleet.map((u) => u.depot)).size} depots, live from ${new Date(start).toISOString()} at speed ${o.speed}`);
   const progress = startProgress(sender, null, { everyMs: process.stderr.isTTY ? 1000 : 10 * MINUTE });
   let lastSave = Date.now();
+  let savedBoots = '';
   try {
     for (let t = sim.ctx.start + STEP_MS; !stop; t += STEP_MS) {
       await sender.dispatch(sim.advance(t), () => stop);
+      // Boot counters are saved as soon as they move, so a restart never reuses a (boot, seq).
+      const boots = JSON.stringify([...sim.nextBoots()]);
+      if (boots !== savedBoots) {
+        await saveNextBoots(storePath, sim.nextBoots());
+        savedBoots = boots;
+      }
       await sender.waitUntil(t, () => stop); // the simulation never runs ahead of the clock by more than a step
       if (Date.now() - lastSave > 5 * MINUTE || stop) {
         lastSave = Date.now();
-        await saveNextBoots(storePath, sim.nextBoots());
         sim.forgetBefore(t - 24 * HOUR);
         if (o.truthPath) await writeTruth(o.truthPath, sim.truth(t));
       }
