@@ -18,12 +18,23 @@ import { startAlertEngine } from './modules/alerts/engine';
 import { switchAdminRoutes, switchPublicRoutes } from './modules/switch/routes';
 import { unitOfSwitchToken } from './modules/switch/service';
 import { readingRoutes } from './modules/readings/routes';
+import { historyRoutes } from './modules/history/routes';
+import { reportRoutes } from './modules/reports/routes';
+import { driverRoutes } from './modules/drivers/routes';
+import { batteryRoutes } from './modules/battery/routes';
 import { recordStatus } from './modules/readings/service';
 import { startIndicators } from './realtime/indicator';
 import { indicatorView, startLiveFeed } from './realtime/live-feed';
 import { verifyToken } from './lib/middleware';
 import { loadActiveUser } from './modules/auth/service';
 import type { AlertView } from '../shared/realtime/envelope';
+import { workOrderRoutes } from './modules/work-orders/routes';
+import { rosterRoutes } from './modules/roster/routes';
+import { mailRoutes } from './modules/mail/routes';
+import { startMail } from './modules/mail/start';
+import { depotRoutes, forecastRoutes } from './modules/forecast/routes';
+import { startForecastPoller } from './modules/forecast/start';
+import { startForecastFake } from './dev-fakes/forecast-fake';
 
 export interface ServiceOptions {
   /** The built client to serve; none in API-only tests. */
@@ -39,6 +50,12 @@ export interface Service {
   ingest: ReturnType<typeof createIngest>;
   broker: BrokerLink;
   alertsIdle(): Promise<void>;
+  /** Alert mails queued so far have been sent (or failed and were logged). */
+  mailIdle(): Promise<void>;
+  /** Fetches every located depot's forecast now and raises freeze warnings. */
+  refreshForecasts: ReturnType<typeof startForecastPoller>['refresh'];
+  /** The local forecast fake, when FORECAST_URL is not set (tests set its temperatures). */
+  forecastFake: Awaited<ReturnType<typeof startForecastFake>> | null;
   close(): Promise<void>;
 }
 
@@ -98,7 +115,24 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
 
   // The live feed is created after the HTTP server; routes publish through this late-bound reference.
   let feed: ReturnType<typeof startLiveFeed> | null = null;
-  const publishAlert = (a: AlertView) => feed?.broadcast({ type: 'alert', alert: a });
+  const alertHooks: Array<(a: AlertView) => void> = [];
+  const publishAlert = (a: AlertView) => {
+    feed?.broadcast({ type: 'alert', alert: a });
+    for (const hook of alertHooks) hook(a);
+  };
+  // E-mail (the local SMTP fake unless SMTP_URL is set) hears every published alert.
+  const mail = await startMail({ config, sequelize: db.sequelize, log: logger('mail') });
+  alertHooks.push((a) => mail.onAlert(a));
+  const forecastFake = config.FORECAST_URL ? null : await startForecastFake({ host: '127.0.0.1', port: config.FORECAST_FAKE_PORT });
+  const forecast = startForecastPoller({
+    sequelize: db.sequelize,
+    baseUrl: config.FORECAST_URL ?? forecastFake!.url,
+    log: logger('forecast'),
+    unitState: (unitId) => ingest.book.view(unitId).state,
+    publish: publishAlert,
+    events: ingest.events,
+    pollMs: config.FORECAST_POLL_MINUTES * 60_000,
+  });
   const depotOf = (unitId: string) => ingest.book.peek(unitId)?.profile.depot ?? '';
   const app = createApp(ctx, {
     staticDir: opts.staticDir,
@@ -109,6 +143,15 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       ['/faults', faultRoutes()],
       ['/alerts', alertRoutes(ctx, publishAlert)],
       ['/switch-pages', switchAdminRoutes(ctx, (unitId) => feed?.dropSwitch(unitId))],
+      ['/work-orders', workOrderRoutes(ctx)],
+      ['/roster', rosterRoutes(ctx)],
+      ['/mail', mailRoutes(ctx, () => mail)],
+      ['/depots', depotRoutes(ctx)],
+      ['/forecast', forecastRoutes(ctx, () => forecast.refresh())],
+      ['/history', historyRoutes(ctx)],
+      ['/reports', reportRoutes(ctx)],
+      ['/drivers', driverRoutes(ctx)],
+      ['/battery', batteryRoutes(ctx)],
     ],
   });
   const http: Server = createServer(app);
@@ -148,10 +191,16 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     ingest,
     broker,
     alertsIdle: () => alerts.idle(),
+    mailIdle: () => mail.idle(),
+    refreshForecasts: () => forecast.refresh(),
+    forecastFake,
     async close() {
       clearInterval(partitionTimer);
       feed?.close();
       alerts.stop();
+      await forecast.stop();
+      await mail.close();
+      await forecastFake?.close();
       await new Promise<void>((res) => http.close(() => res()));
       http.closeAllConnections?.();
       await broker.close();

@@ -12,6 +12,19 @@ export const PERMISSIONS = {
   'users.manage': ['admin'],
   'audit.read': ['admin'],
   'switch.manage': ['admin'],
+  'reports.read': ['admin', 'monitor', 'planner', 'technician'],
+  'battery.read': ['admin', 'monitor', 'planner', 'technician'],
+  'drivers.read': ['admin', 'monitor', 'planner', 'technician'],
+  'drivers.manage': ['admin', 'planner'],
+  'workOrders.read': ['admin', 'monitor', 'planner', 'technician'],
+  'workOrders.manage': ['admin', 'planner'],
+  'workOrders.record': ['technician'],
+  'roster.import': ['admin'],
+  'mail.subscribe': ['admin', 'monitor', 'planner', 'technician'],
+  'mail.admin': ['admin'],
+  'depots.read': ['admin', 'monitor', 'planner', 'technician'],
+  'depots.manage': ['admin'],
+  'forecast.refresh': ['admin', 'planner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

@@ -8,6 +8,8 @@ import { migration as createMessages } from './20261202020000-create-messages';
 import { migration as createEpisodes } from './20261202020100-create-episodes';
 import { migration as createAlerts } from './20261202030000-create-alerts';
 import { migration as addGatewayBrokerHash } from './20261202040000-add-gateway-broker-hash';
+import { migration as createDrivers } from './20261202050000-create-drivers';
 import { migration as partitionMessages } from './20261202045000-partition-messages';
+import { migration as plannerDeskB } from './20261202060000-planner-desk-b';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB];

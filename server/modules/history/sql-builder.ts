@@ -1,0 +1,33 @@
+// A WHERE clause built from optional filters with numbered bind parameters (values never enter the SQL text).
+export class Where {
+  readonly bind: unknown[] = [];
+  private readonly parts: string[] = [];
+
+  /** Adds `expr` with each `?` replaced by the next bind parameter, in order. */
+  add(expr: string, ...values: unknown[]) {
+    let i = 0;
+    this.parts.push(expr.replace(/\?/g, () => this.param(values[i++])));
+    return this;
+  }
+
+  param(value: unknown) {
+    this.bind.push(value);
+    return `$${this.bind.length}`;
+  }
+
+  get sql() {
+    return this.parts.length ? `WHERE ${this.parts.join(' AND ')}` : '';
+  }
+}
+
+/**
+ * The driver of a unit at an instant: the assignment covering it (from_at <= t < to_at), the
+ * latest-starting one if several overlap. Joined at query time, so episodes are never rewritten.
+ */
+export const driverAt = (unitCol: string, timeCol: string, alias = 'd') => `
+  LEFT JOIN LATERAL (
+    SELECT a.driver_id FROM driver_assignments a
+    WHERE a.unit_id = ${unitCol} AND a.from_at <= ${timeCol} AND (a.to_at IS NULL OR a.to_at > ${timeCol})
+    ORDER BY a.from_at DESC LIMIT 1
+  ) ${alias}a ON true
+  LEFT JOIN drivers ${alias} ON ${alias}.id = ${alias}a.driver_id`;
