@@ -32,7 +32,7 @@ export const AlertViewSchema = z.object({
   id: z.number(),
   unitId: z.string(),
   depot: z.string(),
-  kind: z.enum(['interruptedPurge', 'undeterminedCold', 'contactLost']),
+  kind: z.enum(['interruptedPurge', 'undeterminedCold', 'contactLost', 'forecastFreeze']),
   status: z.enum(['open', 'acknowledged', 'resolved']),
   raisedAt: Iso,
   episodeId: z.number().nullable(),
