@@ -50,7 +50,7 @@ export async function listAssignments(db: Sequelize, q: { unitId?: string; drive
 /** The existing assignment of the unit that overlaps [from, to), if any (an open end is infinity). */
 export async function overlapping(db: Sequelize, unitId: string, from: Date, to: Date | null, transaction?: Transaction) {
   const [a] = await db.query<AssignmentRecord>(
-    `${ASSIGNMENT_SELECT} WHERE a.unit_id = $1 AND a.from_at < coalesce($3::timestamptz, 'infinity') AND coalesce(a.to_at, 'infinity') > $2 LIMIT 1`,
+    `${ASSIGNMENT_SELECT} WHERE a.unit_id = $1 AND a.from_at < coalesce($3::timestamptz, 'infinity') AND coalesce(a.to_at, 'infinity') > $2 ORDER BY a.from_at LIMIT 1`,
     { bind: [unitId, from.toISOString(), to?.toISOString() ?? null], type: QueryTypes.SELECT, transaction },
   );
   return a ?? null;
