@@ -18,7 +18,7 @@ export interface TestService {
   stop(): Promise<void>;
 }
 
-export async function startTestService(env: Record<string, string> = {}, opts: { wallNow?: () => number } = {}): Promise<TestService> {
+export async function startTestService(env: Record<string, string> = {}, opts: { wallNow?: () => number; staticDir?: string } = {}): Promise<TestService> {
   const db = await createTestDatabase();
   const config = loadConfig({
     DATABASE_URL: db.url,
@@ -33,7 +33,7 @@ export async function startTestService(env: Record<string, string> = {}, opts: {
     LOGIN_RATE_LIMIT: '1000',
     ...env,
   });
-  const service = await startService(config, { wallNow: opts.wallNow });
+  const service = await startService(config, { wallNow: opts.wallNow, staticDir: opts.staticDir });
   const url = `http://127.0.0.1:${service.port}`;
   const api = request(url);
   return {

@@ -43,7 +43,7 @@ export function BoardPage() {
         actions={
           all && (
             <p className="self-center text-lg text-muted" aria-live="polite">
-              {shown.length === all.length ? `${all.length} units` : `${shown.length} of ${all.length} units`}
+              {shown.length === all.length ? `${all.length} unit${all.length === 1 ? '' : 's'}` : `${shown.length} of ${all.length} units`}
             </p>
           )
         }

@@ -7,7 +7,11 @@ import { SwitchIndicator } from '../../features/switch/components/switch-indicat
 
 function Screen({ children }: { children: ReactNode }) {
   // Pure black and white: the page is read on a phone in the dark, beside the isolator.
-  return <main className="mx-auto flex min-h-screen max-w-md flex-col items-center justify-between gap-8 bg-black px-5 py-8 text-white">{children}</main>;
+  return (
+    <div className="min-h-screen bg-black text-white">
+      <main className="mx-auto flex min-h-screen max-w-md flex-col items-center justify-between gap-8 px-5 py-8">{children}</main>
+    </div>
+  );
 }
 
 function Withdrawn() {

@@ -66,7 +66,16 @@ export function AlertsTable({ alerts, canAct, onAction }: AlertsTableProps) {
         </span>
       ),
     },
-    { key: 'kind', header: 'Alert', cell: (a) => <span className="font-medium">{KIND_LABELS[a.kind]}</span> },
+    {
+      key: 'kind',
+      header: 'Alert',
+      cell: (a) => (
+        <span className="leading-tight">
+          <span className="block font-medium">{KIND_LABELS[a.kind]}</span>
+          <span className="block text-sm text-muted">{formatDateTime(a.raisedAt)}</span>
+        </span>
+      ),
+    },
     {
       key: 'unit',
       header: 'Unit',
@@ -79,13 +88,22 @@ export function AlertsTable({ alerts, canAct, onAction }: AlertsTableProps) {
         </span>
       ),
     },
-    { key: 'raised', header: 'Raised', cell: (a) => formatDateTime(a.raisedAt) },
-    { key: 'into', header: 'Into purge', align: 'right', cell: (a) => <span className="font-mono tabular-nums">{secondsIntoWords(a.secondsIntoPurge)}</span> },
-    { key: 'ambient', header: 'Ambient', align: 'right', cell: (a) => <span className="font-mono tabular-nums">{formatCelsius(a.ambientC)}</span> },
-    { key: 'freeze', header: 'Freeze exposure', cell: (a) => freezeWords(a.freezeExposure) },
+    {
+      key: 'purge',
+      header: 'Purge',
+      className: 'whitespace-normal min-w-48',
+      cell: (a) => (
+        <span className="leading-tight">
+          <span className="block font-mono tabular-nums">
+            {secondsIntoWords(a.secondsIntoPurge)} in · {formatCelsius(a.ambientC)}
+          </span>
+          <span className="block text-sm text-muted">{freezeWords(a.freezeExposure)}</span>
+        </span>
+      ),
+    },
     { key: 'ack', header: 'Acknowledged', cell: (a) => <Who by={a.acknowledgedBy} at={a.acknowledgedAt} /> },
     { key: 'resolved', header: 'Resolved', cell: (a) => <Who by={a.resolvedBy} at={a.resolvedAt} /> },
-    { key: 'comment', header: 'Comment', className: 'whitespace-normal max-w-xs', cell: (a) => a.comment ?? <span className="text-muted">—</span> },
+    { key: 'comment', header: 'Comment', className: 'whitespace-normal min-w-40 max-w-xs', cell: (a) => a.comment ?? <span className="text-muted">—</span> },
   ];
   if (canAct) {
     columns.push({

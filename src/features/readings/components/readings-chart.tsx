@@ -80,6 +80,8 @@ export function ReadingsChart({ readings, windows, fromMs, toMs, height = 320 }:
   useEffect(() => {
     const el = host.current;
     if (!el) return;
+    // Sparse data (a unit that just started reporting) would vanish as bare lines: mark each reading.
+    const points = { show: readings.length < 300, size: 6 };
     const opts: uPlot.Options = {
       width: el.clientWidth || 800,
       height,
@@ -91,8 +93,8 @@ export function ReadingsChart({ readings, windows, fromMs, toMs, height = 320 }:
       ],
       series: [
         {},
-        { label: 'Supply V', scale: 'v', stroke: INK.supply, width: 2, value: (_u, v) => (v === null ? '—' : `${v.toFixed(2)} V`) },
-        { label: 'Ambient °C', scale: 'c', stroke: INK.ambient, width: 2, dash: [8, 4], value: (_u, v) => (v === null ? '—' : `${v.toFixed(1)} °C`) },
+        { label: 'Supply V', scale: 'v', stroke: INK.supply, width: 2, points: { ...points, fill: INK.supply }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(2)} V`) },
+        { label: 'Ambient °C', scale: 'c', stroke: INK.ambient, width: 2, dash: [8, 4], points: { ...points, fill: INK.ambient }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(1)} °C`) },
       ],
       plugins: [purgeWindowsPlugin(() => windowsRef.current)],
     };

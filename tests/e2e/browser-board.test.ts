@@ -1,0 +1,142 @@
+// The board, the alert banner, the alerts page and the unit page in headless Chromium, against the real
+// service serving the built client, while real mqtt.js gateways publish.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { startTestService, type TestService } from '../helpers/service';
+import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
+import { MessageSeq } from '../helpers/messages';
+import { buildClient, collectPageErrors, launchBrowser, screenshot, signIn } from './browser-harness';
+
+const MONITOR = { email: 'monitor@test.local', password: 'monitor-password-1' };
+
+let t: TestService;
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+let errors: string[];
+let admin: string;
+const gateways: TestGateway[] = [];
+
+async function gatewayFor(id: string, purgeSeconds: number) {
+  const g = await provision(t.api, admin, { id, purgeSeconds, depot: 'North yard' });
+  const gw = await connectGateway(t.mqttUrl, g.gatewayId, g.secret);
+  gateways.push(gw);
+  return gw;
+}
+
+const row = (unitId: string) => page.locator('tbody tr', { has: page.locator(`a[href="/units/${unitId}"]`) });
+const countdownOf = async (unitId: string) => {
+  const text = (await row(unitId).locator('[data-state="purging"]').innerText()).match(/(\d+):(\d\d) left/);
+  if (!text) throw new Error('no countdown shown');
+  return Number(text[1]) * 60 + Number(text[2]);
+};
+
+beforeAll(async () => {
+  const [staticDir, b] = await Promise.all([buildClient(), launchBrowser()]);
+  browser = b;
+  t = await startTestService({}, { staticDir });
+  admin = await t.token();
+  const made = await t.api.post('/api/users').set('Authorization', `Bearer ${admin}`).send({ email: MONITOR.email, name: 'Night monitor', role: 'monitor', password: MONITOR.password });
+  if (made.status !== 201) throw new Error(`monitor: ${made.status}`);
+  context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+  page = await context.newPage();
+  errors = collectPageErrors(page);
+}, 120_000);
+
+afterAll(async () => {
+  await Promise.all(gateways.map((g) => g.end()));
+  await browser?.close();
+  await t?.stop();
+});
+
+describe('the board in a browser', () => {
+  it('a monitor signs in and lands on the board; a purge shows with a ticking countdown, then "Safe to isolate", without reload', async () => {
+    const gw = await gatewayFor('BR-1', 60);
+    await signIn(page, t.url, MONITOR.email, MONITOR.password);
+    // The page after sign-in is the board for a monitor.
+    await page.waitForURL((u) => u.pathname === '/board');
+    await page.getByRole('status').filter({ hasText: 'Live' }).waitFor();
+    await row('BR-1').waitFor();
+
+    const m = new MessageSeq(1);
+    const t0 = Date.now() - 1000;
+    await gw.publish('telemetry', m.telemetry(t0, 'on', 13.9, { ambientC: 3 }));
+    await gw.publish('telemetry', m.telemetry(t0 + 500, 'off', 12.6, { ambientC: 3 }));
+    await row('BR-1').getByText('Purge in progress').waitFor({ timeout: 3000 });
+    const first = await countdownOf('BR-1');
+    // 60 s purge, key-off 0.5 s before now (the engine's purge window, protocol rule 8).
+    expect(first).toBeGreaterThan(50);
+    expect(first).toBeLessThanOrEqual(60);
+    await page.waitForTimeout(2100);
+    const later = await countdownOf('BR-1');
+    expect(later).toBeLessThan(first); // ticks in the browser, no new message needed
+    expect(await row('BR-1').innerText()).toMatch(/12\.60 V/);
+    expect(await row('BR-1').innerText()).toMatch(/3\.0 °C/);
+    // The count tile for purging units shows it too.
+    expect(await page.getByRole('button', { name: /Purge in progress\s*1/ }).count()).toBe(1);
+    await screenshot(page, 'board-purging');
+
+    // The controller goes to sleep: the purge completed (gateway protocol: ecmAwake false ends it early).
+    await gw.publish('telemetry', m.telemetry(t0 + 30_000, 'off', 12.5, { ecmAwake: false, ambientC: 3 }));
+    await row('BR-1').getByText('Safe to isolate').waitFor({ timeout: 3000 });
+    expect(await row('BR-1').locator('[data-state="purging"]').count()).toBe(0);
+    await screenshot(page, 'board-safe');
+  });
+
+  it('an interrupted purge raises the banner at once; the monitor acknowledges it there, and the alerts page shows who', async () => {
+    const gw = await gatewayFor('BR-2', 120);
+    await row('BR-2').waitFor();
+    const m = new MessageSeq(3);
+    const t0 = Date.now() - 60_000;
+    await gw.publish('telemetry', m.telemetry(t0, 'on', 13.8, { ambientC: -14 }));
+    await gw.publish('telemetry', m.telemetry(t0 + 1000, 'off', 12.6, { ambientC: -14 }));
+    // Supply lost 20 s into the purge.
+    await gw.publish('power', m.power(t0 + 21_000, 'supply-lost', 1.1));
+
+    const banner = page.getByRole('article', { name: /Purge interrupted: unit BR-2/ });
+    await banner.waitFor({ timeout: 3000 });
+    const text = await banner.innerText();
+    expect(text).toContain('20 s');
+    expect(text).toContain('-14.0 °C');
+    // -14 °C is at or below the DEF freezing point of about -11 °C (ISO 22241-1): band "frozen".
+    expect(text).toMatch(/Probably frozen/);
+    expect(text).toMatch(/Restore battery power, key on, then key off and wait for 'Safe to isolate'/);
+    expect(text).toMatch(/manufacturer's procedure/);
+    await expect.poll(() => row('BR-2').getByText('Purge interrupted').count()).toBe(1);
+    await screenshot(page, 'alert-banner');
+
+    await banner.getByLabel('Comment (optional)').fill('Driver called, restoring power');
+    await banner.getByRole('button', { name: 'Acknowledge' }).click();
+    await banner.waitFor({ state: 'detached', timeout: 3000 });
+
+    await page.getByRole('link', { name: 'Alerts' }).click();
+    await page.getByRole('tab', { name: 'Acknowledged' }).click();
+    const alertRow = page.locator('tbody tr', { hasText: 'BR-2' });
+    await alertRow.waitFor();
+    const rowText = await alertRow.innerText();
+    expect(rowText).toContain('Acknowledged');
+    expect(rowText).toContain(MONITOR.email);
+    expect(rowText).toContain('Driver called, restoring power');
+    await screenshot(page, 'alerts-acknowledged');
+  });
+
+  it('the unit page draws the readings chart and shows the interrupted episode in plain words', async () => {
+    await page.goto(`${t.url}/units/BR-2`);
+    await page.getByRole('heading', { name: 'BR-2' }).waitFor();
+    await page.locator('.afterwatch-chart canvas').waitFor();
+    const box = await page.locator('.afterwatch-chart canvas').boundingBox();
+    expect(box!.width).toBeGreaterThan(300);
+    const episode = page.locator('[data-episode-outcome="interrupted"]');
+    await episode.waitFor();
+    const text = await episode.innerText();
+    expect(text).toContain('Purge interrupted');
+    expect(text).toContain('supply lost');
+    expect(text).toContain('20.0 s');
+    expect(text).toMatch(/Probably frozen/);
+    const timeline = await page.getByRole('list', { name: 'Timeline' }).innerText();
+    expect(timeline).toContain('Key off');
+    expect(timeline).toContain('Supply lost');
+    await screenshot(page, 'unit-page', true);
+    expect(errors).toEqual([]);
+  });
+});
