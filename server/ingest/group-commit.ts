@@ -12,7 +12,8 @@ interface Pending<T> {
 export interface GroupCommitOptions<T> {
   maxItems: number;
   maxAgeMs: number;
-  flush(items: T[]): Promise<void>;
+  /** Writes the items; may return one error (or null) per item where only some could be written. */
+  flush(items: T[]): Promise<void | (Error | null)[]>;
 }
 
 export class GroupCommit<T> {
@@ -65,8 +66,12 @@ export class GroupCommit<T> {
     this.inFlight = batch.length;
     this.flushing = (async () => {
       try {
-        await this.opts.flush(batch.map((p) => p.item));
-        for (const p of batch) p.resolve();
+        const outcome = await this.opts.flush(batch.map((p) => p.item));
+        batch.forEach((p, i) => {
+          const err = outcome?.[i];
+          if (err) p.reject(err);
+          else p.resolve();
+        });
       } catch (err) {
         for (const p of batch) p.reject(err as Error);
       } finally {

@@ -37,7 +37,24 @@ export function createIngest(opts: IngestOptions) {
   const connection = new Map<string, StatusMessage & { at: number }>();
   const book = new UnitBook(sequelize, wallNow, log);
 
-  const batch = new GroupCommit<IngestItem>({ maxItems: opts.batchMax, maxAgeMs: opts.batchMs, flush });
+  const batch = new GroupCommit<IngestItem>({ maxItems: opts.batchMax, maxAgeMs: opts.batchMs, flush: flushOrIsolate });
+
+  /**
+   * One bad row must not hold back the good ones beside it: if a batch fails while the database is up,
+   * its items are written one by one and only the one that cannot be written is refused (not acknowledged).
+   */
+  async function flushOrIsolate(items: IngestItem[]): Promise<(Error | null)[] | void> {
+    try {
+      return await flush(items);
+    } catch (err) {
+      const up = await sequelize.query('SELECT 1').then(() => true, () => false);
+      if (!up || items.length === 1) throw err;
+      log.warn({ err, items: items.length }, 'a batch failed: writing its items one by one');
+      const outcome: (Error | null)[] = [];
+      for (const item of items) outcome.push(await flush([item]).then(() => null, (e: Error) => e));
+      return outcome;
+    }
+  }
 
   async function flush(items: IngestItem[]) {
     const messages = items.filter((i): i is MessageItem => i.type === 'message');

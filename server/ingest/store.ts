@@ -32,12 +32,15 @@ export async function insertMessages(sequelize: Sequelize, t: Transaction, items
   return new Set(rows.map((r) => key(r.gateway_id, Number(r.boot), Number(r.seq))));
 }
 
+// PostgreSQL text cannot hold NUL; a hostile payload (or a parser's message quoting it) may carry one.
+const clean = (s: string | null) => (s === null ? null : s.replace(/\u0000/g, '\\0'));
+
 export async function insertQuarantine(sequelize: Sequelize, t: Transaction, items: QuarantineItem[]) {
   if (items.length === 0) return;
   await sequelize.query(
     `INSERT INTO quarantine (gateway_id, topic, reason, excerpt) SELECT * FROM unnest($1::text[], $2::text[], $3::text[], $4::text[])`,
     {
-      bind: [items.map((q) => q.gatewayId), items.map((q) => q.topic.slice(0, 300)), items.map((q) => q.reason), items.map((q) => q.excerpt)],
+      bind: [items.map((q) => clean(q.gatewayId)), items.map((q) => clean(q.topic.slice(0, 300))), items.map((q) => clean(q.reason)), items.map((q) => clean(q.excerpt))],
       transaction: t,
     },
   );
