@@ -38,7 +38,9 @@ export class GatewayClient {
   private head = 0;
   private client: MqttClient | null = null;
   private state: 'down' | 'connecting' | 'up' = 'down';
-  private inFlight = 0;
+  /** Published and not yet acknowledged, in order; resent on a new connection after an unplanned drop. */
+  private readonly pending = new Map<number, TimelineEntry & { kind: 'publish' }>();
+  private nextRef = 0;
   private failures = 0;
   private retryTimer: NodeJS.Timeout | null = null;
   private closed = false;
@@ -47,7 +49,7 @@ export class GatewayClient {
   constructor(private readonly o: GatewayClientOptions) {}
 
   get idle(): boolean {
-    return this.head >= this.queue.length && this.inFlight === 0;
+    return this.head >= this.queue.length && this.pending.size === 0;
   }
 
   enqueue(e: TimelineEntry): void {
@@ -74,6 +76,8 @@ export class GatewayClient {
       this.state = 'up';
       this.failures = 0;
       this.o.stats.connects++;
+      // QoS 1: what the broker did not acknowledge before the drop goes again, first and in order.
+      for (const [ref, e] of this.pending) this.send(c, ref, e, true);
       this.pump();
     });
     c.on('error', (err: Error & { code?: number }) => {
@@ -85,12 +89,15 @@ export class GatewayClient {
     });
     c.on('close', () => {
       if (this.client !== c || this.closed) return;
+      // Unplanned: this client is given up (its late callbacks are ignored) and a new one connects later.
+      this.client = null;
       this.state = 'down';
-      this.scheduleRetry(c);
+      c.end(true);
+      this.scheduleRetry();
     });
   }
 
-  private scheduleRetry(c: MqttClient): void {
+  private scheduleRetry(): void {
     if (this.retryTimer) return;
     this.failures++;
     this.o.stats.reconnects++;
@@ -98,10 +105,20 @@ export class GatewayClient {
     const delay = base * (0.5 + this.o.rng.next()); // jitter, so that a fleet does not reconnect in step
     this.retryTimer = setTimeout(() => {
       this.retryTimer = null;
-      if (this.closed || this.client !== c) return;
-      this.state = 'connecting';
-      c.reconnect();
+      if (this.closed || this.client !== null) return;
+      this.open();
     }, delay);
+  }
+
+  private send(c: MqttClient, ref: number, e: TimelineEntry & { kind: 'publish' }, resend: boolean): void {
+    c.publish(e.topic, JSON.stringify(e.payload), { qos: 1, dup: resend || e.duplicate === true }, (err) => {
+      if (this.client !== c || !this.pending.has(ref)) return; // a dropped connection's callback
+      if (err) return; // not acknowledged: it stays pending and goes again on the next connection
+      this.pending.delete(ref);
+      this.o.slots.give();
+      this.o.stats.acked++;
+      this.pump();
+    });
   }
 
   /** A planned loss of connection: no DISCONNECT, so the broker publishes the will. */
@@ -124,25 +141,20 @@ export class GatewayClient {
         continue;
       }
       if (e.kind === 'disconnect') {
-        if (this.inFlight > 0) return; // every message the gateway sent is acknowledged before it goes dark
+        if (this.pending.size > 0) return; // every message the gateway sent is acknowledged before it goes dark
         this.drop();
         this.head++;
         continue;
       }
       if (this.state !== 'up' || !this.client) return;
-      if (this.inFlight >= this.o.perClientLimit) return;
+      if (this.pending.size >= this.o.perClientLimit) return;
       if (!this.o.slots.tryTake(this.pumpFn)) return;
-      this.inFlight++;
       this.head++;
       this.o.stats.published++;
       if (e.duplicate) this.o.stats.duplicates++;
-      this.client.publish(e.topic, JSON.stringify(e.payload), { qos: 1, dup: e.duplicate === true }, (err) => {
-        this.inFlight--;
-        this.o.slots.give();
-        if (err) this.o.stats.errors++;
-        else this.o.stats.acked++;
-        this.pump();
-      });
+      const ref = this.nextRef++;
+      this.pending.set(ref, e);
+      this.send(this.client, ref, e, false);
     }
     if (this.head > 4096 && this.head * 2 > this.queue.length) {
       this.queue = this.queue.slice(this.head);
@@ -156,6 +168,9 @@ export class GatewayClient {
     if (this.retryTimer) clearTimeout(this.retryTimer);
     const c = this.client;
     this.client = null;
+    for (let i = 0; i < this.pending.size; i++) this.o.slots.give();
+    this.o.stats.errors += this.pending.size; // closed before they were acknowledged
+    this.pending.clear();
     if (c) await new Promise<void>((resolve) => c.end(false, {}, () => resolve()));
   }
 }
