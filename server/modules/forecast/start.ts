@@ -5,12 +5,24 @@ import { settleAlerts } from '../alerts/service';
 import { refreshForecasts, type ForecastDeps, type RefreshResult } from './service';
 
 export function startForecastPoller(deps: ForecastDeps & { events: FleetEvents; pollMs: number }) {
-  let running: Promise<RefreshResult> | null = null;
-  const refresh = () => {
-    running ??= refreshForecasts(deps).finally(() => (running = null));
-    return running;
+  // One refresh at a time; an on-demand refresh runs after the current one, so it sees the latest settings.
+  let last: Promise<unknown> = Promise.resolve();
+  let busy = false;
+  const refresh = (): Promise<RefreshResult> => {
+    const next = last.catch(() => undefined).then(async () => {
+      busy = true;
+      try {
+        return await refreshForecasts(deps);
+      } finally {
+        busy = false;
+      }
+    });
+    last = next;
+    return next;
   };
-  const onTimer = () => void refresh().catch((err) => deps.log.warn({ err }, 'forecast poll failed'));
+  const onTimer = () => {
+    if (!busy) refresh().catch((err) => deps.log.warn({ err }, 'forecast poll failed'));
+  };
   const timer = setInterval(onTimer, deps.pollMs);
   timer.unref();
   const first = setTimeout(onTimer, 2000);
@@ -29,7 +41,7 @@ export function startForecastPoller(deps: ForecastDeps & { events: FleetEvents; 
     async stop() {
       clearInterval(timer);
       clearTimeout(first);
-      await running?.catch(() => undefined);
+      await last.catch(() => undefined);
     },
   };
 }
