@@ -137,6 +137,54 @@ describe('the board in a browser', () => {
     expect(timeline).toContain('Key off');
     expect(timeline).toContain('Supply lost');
     await screenshot(page, 'unit-page', true);
+  });
+
+  it('a replayed purge from two days ago counts its time in state on the unit\'s clock, not as "2 d"', async () => {
+    const gw = await gatewayFor('BR-3', 600);
+    await page.goto(`${t.url}/board?q=BR-3`);
+    await row('BR-3').waitFor();
+    const m = new MessageSeq(1);
+    const t0 = Date.now() - 2 * 24 * 3600_000;
+    await gw.publish('telemetry', m.telemetry(t0, 'on', 13.9));
+    await gw.publish('telemetry', m.telemetry(t0 + 1000, 'off', 12.6));
+    await gw.publish('telemetry', m.telemetry(t0 + 6000, 'off', 12.6));
+    await row('BR-3').getByText('Purge in progress').waitFor({ timeout: 3000 });
+    const inState = await row('BR-3').locator('td').nth(2).innerText();
+    // 5 s from key-off to the unit's latest message, plus the seconds since the browser received it.
+    expect(inState).toMatch(/^\d+ s\s*\(unit clock\)$/);
+    expect(Number(inState.match(/^(\d+)/)![1])).toBeLessThan(30);
+    expect(errors).toEqual([]);
+  });
+
+  it('with 2,000 units the board keeps only the rows near the viewport in the page, and search, depot and state tiles filter', async () => {
+    const depots = ['East yard', 'West yard'];
+    const ids = Array.from({ length: 2000 }, (_, i) => `FL-${String(i).padStart(4, '0')}`);
+    // Setup only: 2,000 profiles written in one statement (through POST /api/units one by one this would
+    // take longer than the whole suite may). What is under test is the board reading them from GET /api/units.
+    await t.service.ctx.sequelize.query(
+      `INSERT INTO units (id, name, depot, system_voltage, purge_seconds, loss_threshold_v, created_at, updated_at)
+       SELECT x.id, 'Fleet ' || x.id, x.depot, 24, 120, 12.0, now(), now() FROM unnest($1::text[], $2::text[]) AS x(id, depot)`,
+      { bind: [ids, ids.map((_, i) => depots[i % 2])] },
+    );
+    await page.goto(`${t.url}/board`);
+    await page.getByText('2003 units').waitFor();
+    const rendered = await page.locator('tbody tr[data-index]').count();
+    expect(rendered).toBeGreaterThan(5);
+    expect(rendered).toBeLessThan(80);
+    await screenshot(page, 'board-fleet');
+    // Sorting by unit, descending, brings the last of the 2,000 to the top.
+    await page.getByRole('button', { name: /^Unit/ }).click();
+    await page.getByRole('button', { name: /^Unit/ }).click(); // descending
+    await row('FL-1999').waitFor();
+    await page.getByRole('searchbox').fill('FL-0042');
+    await row('FL-0042').waitFor();
+    expect(await page.locator('tbody tr[data-index], tbody tr:not([aria-hidden])').count()).toBe(1);
+    await page.getByRole('searchbox').fill('');
+    await page.getByLabel('Depot').selectOption('North yard');
+    await page.getByText('3 of 2003 units').waitFor();
+    await page.getByRole('button', { name: /Purge interrupted\s*1/ }).click();
+    await page.getByText('1 of 2003 units').waitFor();
+    await row('BR-2').waitFor();
     expect(errors).toEqual([]);
   });
 });

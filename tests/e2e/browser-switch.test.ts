@@ -5,7 +5,8 @@ import type { Browser, Page } from 'playwright-core';
 import { startTestService, type TestService } from '../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
-import { buildClient, collectPageErrors, launchBrowser, screenshot } from './browser-harness';
+import { ADMIN } from '../helpers/service';
+import { buildClient, collectPageErrors, launchBrowser, screenshot, signIn } from './browser-harness';
 
 let t: TestService;
 let browser: Browser;
@@ -87,6 +88,29 @@ describe('the switch page in a browser', () => {
     await rerun.waitFor({ timeout: 3000 });
     expect(await rerun.innerText()).toContain('Purge was interrupted: restore power, key on, key off and wait');
     await screenshot(page, 'switch-rerun');
+    await context.close();
+  });
+
+  it('an admin issues pages for the depot\'s units that have none and gets a printable sheet of QR cards', async () => {
+    for (const id of ['SW-8', 'SW-9']) await provision(t.api, admin, { id, depot: 'South yard' });
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    const errors = collectPageErrors(page);
+    await signIn(page, t.url, ADMIN.email, ADMIN.password);
+    await page.goto(`${t.url}/admin/switch-sheet?depot=${encodeURIComponent('South yard')}`);
+    await page.locator('.qr-card').first().waitFor();
+    expect(await page.locator('.qr-card').count()).toBe(1); // SW-7 has one from the test before
+    await page.getByRole('button', { name: /Issue pages for the 2 units of South yard without one/ }).click();
+    await expect.poll(() => page.locator('.qr-card').count()).toBe(3);
+    expect(await page.locator('.qr-card svg').count()).toBe(3);
+    await page.getByRole('button', { name: /Every unit of South yard has a page/ }).waitFor();
+    const sheet = (await t.api.get('/api/switch-pages?depot=South%20yard').set('Authorization', `Bearer ${admin}`)).body as { unitId: string }[];
+    expect(sheet.map((e) => e.unitId).sort()).toEqual(['SW-7', 'SW-8', 'SW-9']);
+    await screenshot(page, 'switch-sheet');
+    await page.emulateMedia({ media: 'print' });
+    expect(await page.locator('header').isVisible()).toBe(false);
+    await screenshot(page, 'switch-sheet-print', true);
+    expect(errors).toEqual([]);
     await context.close();
   });
 });
