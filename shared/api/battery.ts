@@ -11,6 +11,7 @@ export const BatteryUnitParamSchema = UnitIdSchema;
 const Estimate = z.object({
   restedReadings: z.number(),
   socAtStart: z.number(),
+  interceptPct: z.number(),
   slopePctPerHour: z.number(),
   drainPctPerHour: z.number(),
   projectedSocAfterWeekend: z.number(),

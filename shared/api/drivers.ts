@@ -35,6 +35,9 @@ export type Assignment = z.infer<typeof AssignmentSchema>;
 /** The assignments CSV: these columns, a header row, one assignment per row (driver_name only needed for a new driver). */
 export const ASSIGNMENT_CSV_COLUMNS = ['driver_code', 'driver_name', 'unit_id', 'from', 'to'] as const;
 export const MAX_IMPORT_ROWS = 5000;
+/** The template offered for download: the header and two invented example rows (the second, an open-ended assignment of a driver on file). */
+export const ASSIGNMENT_TEMPLATE =
+  [ASSIGNMENT_CSV_COLUMNS.join(','), 'D-104,Example Driver,NORTH-07,2026-11-23T05:30:00Z,2026-11-23T16:00:00Z', 'D-104,,NORTH-07,2026-11-24T05:30:00Z,'].join('\r\n') + '\r\n';
 
 export const AssignmentImportSchema = z.object({
   csv: z.string().min(1, 'the file is empty').max(900_000, 'the file is larger than 900 kB'),

@@ -23,8 +23,10 @@ export interface VoltageReading { ts: number; volts: number }
 
 export interface DrainEstimate {
   restedReadings: number;
-  /** Fitted state of charge at charging stop (hour 0), percent. */
+  /** Fitted state of charge at charging stop (hour 0), percent, clamped to 0..100. */
   socAtStart: number;
+  /** The fitted line's value at hour 0, unclamped (the line is intercept + slope × hours). */
+  interceptPct: number;
   /** Negative while the battery drains; percent of charge per hour. */
   slopePctPerHour: number;
   /** Drain as a positive figure, percent per hour (0 when the fit rises). */
@@ -70,6 +72,7 @@ export function estimateDrain(chargeStoppedAt: number, readings: readonly Voltag
   return {
     restedReadings: points.length,
     socAtStart: clamp(fit.intercept),
+    interceptPct: fit.intercept,
     slopePctPerHour: fit.slope,
     drainPctPerHour: Math.max(0, -fit.slope),
     projectedSocAfterWeekend: clamp(fit.intercept + fit.slope * WEEKEND_HOURS),

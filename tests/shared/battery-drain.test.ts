@@ -36,6 +36,7 @@ describe('drain estimate of one park', () => {
     expect(e.drainPctPerHour).toBeCloseTo(3.125, 9);
     // 100 % at hour 4 → intercept 112.5 % (clamped to 100 for display); at hour 62: 112.5 − 3.125 × 62 < 0 → 0 %.
     expect(e.socAtStart).toBe(100);
+    expect(e.interceptPct).toBeCloseTo(112.5, 9);
     expect(e.projectedSocAfterWeekend).toBe(0);
   });
 
@@ -67,7 +68,7 @@ describe('drain estimate of one park', () => {
 });
 
 describe('advice', () => {
-  const est = (p: number) => ({ restedReadings: 5, socAtStart: 100, slopePctPerHour: -1, drainPctPerHour: 1, projectedSocAfterWeekend: p });
+  const est = (p: number) => ({ restedReadings: 5, socAtStart: 100, interceptPct: 100, slopePctPerHour: -1, drainPctPerHour: 1, projectedSocAfterWeekend: p });
   it('the worst recent park decides; under 50 % after the weekend means the drain is too high', () => {
     expect(adviseFrom([est(80), est(49.9)])).toEqual({ advice: 'drainTooHigh', worstProjectedSoc: 49.9 });
     expect(adviseFrom([est(80), est(50)])).toEqual({ advice: 'safeOverWeekend', worstProjectedSoc: 50 });

@@ -5,11 +5,10 @@ import { AppError, badRequest, validationError } from '../../lib/errors';
 import type { AuthUser } from '../../lib/middleware';
 import { recordAudit } from '../audit/service';
 import { UnitIdSchema } from '../../../shared/api/units';
-import { ASSIGNMENT_CSV_COLUMNS, DriverCodeSchema, DriverNameSchema, MAX_IMPORT_ROWS, ZonedTimeSchema, type ImportPreview, type ImportRow } from '../../../shared/api/drivers';
+import { ASSIGNMENT_CSV_COLUMNS, ASSIGNMENT_TEMPLATE, DriverCodeSchema, DriverNameSchema, MAX_IMPORT_ROWS, ZonedTimeSchema, type ImportPreview, type ImportRow } from '../../../shared/api/drivers';
 import { insertAssignment, lockAssignments, overlapping } from './service';
 
-export const ASSIGNMENT_TEMPLATE =
-  [ASSIGNMENT_CSV_COLUMNS.join(','), 'D-104,Example Driver,NORTH-07,2026-11-23T05:30:00Z,2026-11-23T16:00:00Z', 'D-104,,NORTH-07,2026-11-24T05:30:00Z,'].join('\r\n') + '\r\n';
+export { ASSIGNMENT_TEMPLATE };
 
 interface Parsed { line: number; cells: Record<string, string>; parseError: string | null }
 
