@@ -22,6 +22,11 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/admin/gateways', label: 'Gateways', roles: ['admin'], group: 'admin' },
   { to: '/admin/audit', label: 'Audit log', roles: ['admin'], group: 'admin' },
   { to: '/admin/switch-sheet', label: 'Switch codes', roles: ['admin'], group: 'admin' },
+  { to: '/work-orders', label: 'Work orders', group: 'main' },
+  { to: '/depots', label: 'Depots & forecast', group: 'main' },
+  { to: '/settings/mail', label: 'E-mail alerts', group: 'main' },
+  { to: '/admin/roster', label: 'Roster import', roles: ['admin'], group: 'admin' },
+  { to: '/admin/mailbox', label: 'Mailbox', roles: ['admin'], group: 'admin' },
 ];
 
 export function navFor(role: Role, items: readonly NavItem[] = NAV_ITEMS): NavItem[] {

@@ -24,6 +24,12 @@ const appRoutes: RouteObject[] = [
   { path: 'admin/units', lazy: () => import('./routes/admin/units').then((m) => ({ Component: m.AdminUnitsPage })) },
   { path: 'admin/gateways', lazy: () => import('./routes/admin/gateways').then((m) => ({ Component: m.AdminGatewaysPage })) },
   { path: 'admin/audit', lazy: () => import('./routes/admin/audit').then((m) => ({ Component: m.AdminAuditPage })) },
+  { path: 'work-orders', lazy: () => import('./routes/work-orders').then((m) => ({ Component: m.WorkOrdersPage })) },
+  { path: 'work-orders/:id', lazy: () => import('./routes/work-orders-detail').then((m) => ({ Component: m.WorkOrderDetailPage })) },
+  { path: 'depots', lazy: () => import('./routes/roster-depots').then((m) => ({ Component: m.DepotsPage })) },
+  { path: 'settings/mail', lazy: () => import('./routes/mail-settings').then((m) => ({ Component: m.MailSettingsPage })) },
+  { path: 'admin/roster', lazy: () => import('./routes/roster').then((m) => ({ Component: m.AdminRosterPage })) },
+  { path: 'admin/mailbox', lazy: () => import('./routes/mail-box').then((m) => ({ Component: m.AdminMailboxPage })) },
   { path: '*', Component: NotFoundPage },
 ];
 
