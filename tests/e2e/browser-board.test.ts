@@ -34,7 +34,8 @@ const countdownOf = async (unitId: string) => {
 beforeAll(async () => {
   const [staticDir, b] = await Promise.all([buildClient(), launchBrowser()]);
   browser = b;
-  t = await startTestService({}, { staticDir });
+  // Alerts escalate after 0.6 s unacknowledged, so the escalation mark can be seen arriving live.
+  t = await startTestService({ ALERT_ESCALATE_MINUTES: '0.01' }, { staticDir });
   admin = await t.token();
   const made = await t.api.post('/api/users').set('Authorization', `Bearer ${admin}`).send({ email: MONITOR.email, name: 'Night monitor', role: 'monitor', password: MONITOR.password });
   if (made.status !== 201) throw new Error(`monitor: ${made.status}`);
@@ -103,13 +104,15 @@ describe('the board in a browser', () => {
     expect(text).toMatch(/Restore battery power, key on, then key off and wait for 'Safe to isolate'/);
     expect(text).toMatch(/manufacturer's procedure/);
     await expect.poll(() => row('BR-2').getByText('Purge interrupted').count()).toBe(1);
+    // Left unacknowledged past the set time, it escalates; the banner marks it without a reload.
+    await banner.getByText('Escalated').waitFor({ timeout: 5000 });
     await screenshot(page, 'alert-banner');
 
     await banner.getByLabel('Comment (optional)').fill('Driver called, restoring power');
     await banner.getByRole('button', { name: 'Acknowledge' }).click();
     await banner.waitFor({ state: 'detached', timeout: 3000 });
 
-    await page.getByRole('link', { name: 'Alerts' }).click();
+    await page.getByRole('link', { name: 'Alerts', exact: true }).click();
     await page.getByRole('tab', { name: 'Acknowledged' }).click();
     const alertRow = page.locator('tbody tr', { hasText: 'BR-2' });
     await alertRow.waitFor();
@@ -117,6 +120,7 @@ describe('the board in a browser', () => {
     expect(rowText).toContain('Acknowledged');
     expect(rowText).toContain(MONITOR.email);
     expect(rowText).toContain('Driver called, restoring power');
+    expect(rowText).toMatch(/escalated/i);
     await screenshot(page, 'alerts-acknowledged');
   });
 

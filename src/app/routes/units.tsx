@@ -4,6 +4,8 @@ import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
 import { PageHeader } from '../../components/ui/page-header';
 import { nextSort } from '../../lib/sort';
+import { liveStatus } from '../../lib/live-feed';
+import { useStore } from '../../lib/live-store';
 import { useUnits } from '../../features/units/api/get-units';
 import { StateSummary } from '../../features/units/components/state-summary';
 import { UnitsFilters } from '../../features/units/components/units-filters';
@@ -12,7 +14,8 @@ import { countStates } from '../../features/units/lib/count-states';
 import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
 
 export function UnitsPage() {
-  const units = useUnits();
+  // The live feed writes into the same cache; poll only while it is down.
+  const units = useUnits({ refetchInterval: useStore(liveStatus) === 'live' ? false : 10_000 });
   const [params, setParams] = useSearchParams();
   const filters = readUnitFilters(params);
   const setFilters = (f: UnitFilters) => setParams(writeUnitFilters(f), { replace: true });
@@ -26,7 +29,7 @@ export function UnitsPage() {
     <>
       <PageHeader
         title="Units"
-        description="Every unit's purge state, refreshed every 10 seconds."
+        description="Every unit's purge state and gateway, kept current by the live feed."
         actions={
           units.data && (
             <p className="self-center text-muted" aria-live="polite">

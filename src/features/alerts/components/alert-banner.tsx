@@ -9,6 +9,7 @@ import { dismissBannerAlert } from '../../../lib/live-feed';
 import { useStore } from '../../../lib/live-store';
 import { useAlertAction } from '../api/alert-actions';
 import { ALERT_ACTION, ALERT_CAUTION, KIND_LABELS, secondsIntoWords } from '../lib/alert-words';
+import { EscalatedMark } from './alerts-table';
 
 export interface AlertBannerProps {
   alerts: AlertView[];
@@ -51,8 +52,9 @@ function BannerItem({ alert, canAct, name }: { alert: AlertView; canAct: boolean
             {KIND_LABELS[alert.kind]} — <span className="font-mono">{alert.unitId}</span>
             {name && <span className="font-semibold text-muted"> {name}</span>}
           </h2>
-          <p className="text-muted">
+          <p className="flex flex-wrap items-center gap-3 text-muted">
             {alert.depot} · raised {formatDateTime(alert.raisedAt)}
+            {alert.escalatedAt && <EscalatedMark at={alert.escalatedAt} />}
           </p>
           <dl className="mt-3 flex flex-wrap gap-x-10 gap-y-2">
             <Fact label="Into the purge" value={secondsIntoWords(alert.secondsIntoPurge)} />

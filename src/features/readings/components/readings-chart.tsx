@@ -47,7 +47,6 @@ function purgeWindowsPlugin(windows: () => PurgeWindow[]): uPlot.Plugin {
         ctx.lineWidth = 2 * devicePixelRatio;
         ctx.setLineDash([6 * devicePixelRatio, 4 * devicePixelRatio]);
         ctx.font = `${14 * devicePixelRatio}px sans-serif`;
-        ctx.textAlign = 'center';
         for (const w of windows()) {
           if (w.interruptedAt === null) continue;
           const x = u.valToPos(w.interruptedAt / 1000, 'x', true);
@@ -56,7 +55,10 @@ function purgeWindowsPlugin(windows: () => PurgeWindow[]): uPlot.Plugin {
           ctx.moveTo(x, bbox.top);
           ctx.lineTo(x, bbox.top + bbox.height);
           ctx.stroke();
-          ctx.fillText('× interrupted', x, bbox.top + 16 * devicePixelRatio);
+          // Label on the side with room, so it never runs off the plot.
+          const right = x > bbox.left + bbox.width / 2;
+          ctx.textAlign = right ? 'right' : 'left';
+          ctx.fillText('× interrupted', x + (right ? -6 : 6) * devicePixelRatio, bbox.top + 16 * devicePixelRatio);
         }
         ctx.restore();
       },

@@ -1,12 +1,12 @@
-import type { RosterPreview, RosterRow } from '../../../../shared/api/roster';
+import type { RosterColumn, RosterPreview } from '../../../../shared/api/roster';
 
-const CELLS: { key: keyof RosterRow; column: string; header: string }[] = [
-  { key: 'unitId', column: 'unit_id', header: 'Unit id' },
-  { key: 'name', column: 'name', header: 'Name' },
-  { key: 'depot', column: 'depot', header: 'Depot' },
-  { key: 'systemVoltage', column: 'system_voltage', header: 'Volts' },
-  { key: 'purgeSeconds', column: 'purge_seconds', header: 'Purge (s)' },
-  { key: 'gatewayId', column: 'gateway_id', header: 'Gateway' },
+const CELLS: { column: RosterColumn; header: string }[] = [
+  { column: 'unit_id', header: 'Unit id' },
+  { column: 'name', header: 'Name' },
+  { column: 'depot', header: 'Depot' },
+  { column: 'system_voltage', header: 'Volts' },
+  { column: 'purge_seconds', header: 'Purge (s)' },
+  { column: 'gateway_id', header: 'Gateway' },
 ];
 
 /** Each row of the file with its bad cells marked and their messages beside the row. */
@@ -17,7 +17,7 @@ export function RosterPreviewTable({ preview }: { preview: RosterPreview }) {
         <thead className="bg-raised text-sm uppercase tracking-wide text-muted">
           <tr>
             <th className="px-3 py-2">Line</th>
-            {CELLS.map((c) => <th key={c.key} className="px-3 py-2">{c.header}</th>)}
+            {CELLS.map((c) => <th key={c.column} className="px-3 py-2">{c.header}</th>)}
             <th className="px-3 py-2">Problems</th>
           </tr>
         </thead>
@@ -28,8 +28,8 @@ export function RosterPreviewTable({ preview }: { preview: RosterPreview }) {
               <tr key={r.line} className={`border-t border-line ${r.errors.length ? 'bg-danger/10' : ''}`} data-line={r.line}>
                 <td className="px-3 py-2 font-mono">{r.line}</td>
                 {CELLS.map((c) => (
-                  <td key={c.key} className={`px-3 py-2 ${bad.has(c.column as never) ? 'font-semibold text-danger underline decoration-wavy' : ''}`} aria-invalid={bad.has(c.column as never) || undefined}>
-                    {r[c.key] === null || r[c.key] === '' ? <span className="text-muted">—</span> : String(r[c.key])}
+                  <td key={c.column} className={`px-3 py-2 ${bad.has(c.column) ? 'font-semibold text-danger underline decoration-wavy' : ''}`} aria-invalid={bad.has(c.column) || undefined}>
+                    {r.cells[c.column] === '' ? <span className="text-muted">—</span> : r.cells[c.column]}
                   </td>
                 ))}
                 <td className="px-3 py-2 text-sm">
