@@ -19,6 +19,8 @@ export const RosterRowSchema = z.object({
   systemVoltage: z.number().nullable(),
   purgeSeconds: z.number().nullable(),
   gatewayId: z.string().nullable(),
+  /** The cells as written in the file (trimmed), to show a bad value as it was. */
+  cells: z.record(z.enum(ROSTER_COLUMNS), z.string()),
   errors: z.array(RosterCellErrorSchema),
 });
 export type RosterRow = z.infer<typeof RosterRowSchema>;

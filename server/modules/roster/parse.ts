@@ -75,7 +75,8 @@ export function parseRoster(csv: string, existing: Existing): RosterPreview {
       else if (existing.gateways.has(gatewayId)) err('gateway_id', `gateway ${gatewayId} already exists (unit ${existing.gateways.get(gatewayId)})`);
       if (!seenGateways.has(gatewayId)) seenGateways.set(gatewayId, line);
     }
-    return { line, unitId, name, depot, systemVoltage, purgeSeconds, gatewayId, errors };
+    const cells = Object.fromEntries(ROSTER_COLUMNS.map((c) => [c, cell(c)])) as Record<RosterColumn, string>;
+    return { line, unitId, name, depot, systemVoltage, purgeSeconds, gatewayId, cells, errors };
   });
   const errorCount = rows.reduce((n, r) => n + r.errors.length, 0);
   return { ok: errorCount === 0, rows, fileErrors: [], errorCount };
