@@ -6,6 +6,7 @@ import type { WorkOrderView } from '../../../../shared/api/work-orders';
 import { useActiveAlerts } from '../api/get-active-alerts';
 import { useTechnicians } from '../api/get-technicians';
 import { useCreateWorkOrder } from '../api/work-order-mutations';
+import { ALERT_KIND_WORDS } from '../lib/words';
 
 type Kind = 'alert' | 'episode' | 'fault';
 
@@ -32,7 +33,7 @@ export function OpenWorkOrderForm({ initialAlertId, onOpened }: { initialAlertId
     );
   }
 
-  const alertOptions = (alerts.data ?? []).map((a) => ({ value: String(a.id), label: `#${a.id} · ${a.unitId} · ${a.kind} · ${a.depot}` }));
+  const alertOptions = (alerts.data ?? []).map((a) => ({ value: String(a.id), label: `#${a.id} · ${a.unitId} · ${ALERT_KIND_WORDS[a.kind] ?? a.kind} · ${a.depot}` }));
   return (
     <form onSubmit={submit} noValidate className="grid gap-4 md:grid-cols-2">
       <SelectField label="Opened from" name="kind" value={kind} onChange={(e) => setKind(e.target.value as Kind)}

@@ -28,10 +28,13 @@ export function PassFailCheckForm({ orderId, checkKey }: { orderId: number; chec
   }
 
   return (
-    <form onSubmit={submit} noValidate aria-label={CHECK_WORDS[checkKey]} className="grid gap-3 sm:grid-cols-[10rem_1fr_auto] sm:items-end">
-      <SelectField label="Result" name="result" error={error ?? undefined} options={[{ value: '', label: 'Choose…' }, { value: 'pass', label: 'Pass' }, { value: 'fail', label: 'Fail' }]} />
-      <TextField label="Note" name="note" maxLength={2000} hint={HINTS[checkKey]} />
-      <Button type="submit" disabled={record.isPending}>Record</Button>
+    <form onSubmit={submit} noValidate aria-label={CHECK_WORDS[checkKey]} className="flex flex-col gap-2">
+      <p className="text-sm text-muted">{HINTS[checkKey]}</p>
+      <div className="grid gap-3 sm:grid-cols-[10rem_1fr_auto] sm:items-end">
+        <SelectField label="Result" name="result" error={error ?? undefined} options={[{ value: '', label: 'Choose…' }, { value: 'pass', label: 'Pass' }, { value: 'fail', label: 'Fail' }]} />
+        <TextField label="Note" name="note" maxLength={2000} />
+        <Button type="submit" disabled={record.isPending}>Record</Button>
+      </div>
     </form>
   );
 }
