@@ -1,11 +1,44 @@
 // The board, the alert banner, the alerts page and the unit page in headless Chromium, against the real
 // service serving the built client, while real mqtt.js gateways publish.
+import { createServer, connect, type AddressInfo, type Socket } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { startTestService, type TestService } from '../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
 import { buildClient, collectPageErrors, launchBrowser, screenshot, signIn } from './browser-harness';
+
+/** A TCP relay to the service; `down()` cuts every connection and refuses new ones until `up()`. */
+async function startRelay(targetPort: string) {
+  const sockets = new Set<Socket>();
+  let refusing = false;
+  const server = createServer((client) => {
+    if (refusing) return client.destroy();
+    const upstream = connect(Number(targetPort), '127.0.0.1');
+    for (const s of [client, upstream]) {
+      sockets.add(s);
+      s.on('close', () => sockets.delete(s));
+      s.on('error', () => s.destroy());
+    }
+    client.pipe(upstream).pipe(client);
+  });
+  await new Promise<void>((res) => server.listen(0, '127.0.0.1', res));
+  const { port } = server.address() as AddressInfo;
+  return {
+    url: `http://127.0.0.1:${port}`,
+    down() {
+      refusing = true;
+      for (const s of sockets) s.destroy();
+    },
+    up() {
+      refusing = false;
+    },
+    close: () => {
+      for (const s of sockets) s.destroy();
+      return new Promise<void>((res) => server.close(() => res()));
+    },
+  };
+}
 
 const MONITOR = { email: 'monitor@test.local', password: 'monitor-password-1' };
 
@@ -160,6 +193,35 @@ describe('the board in a browser', () => {
     expect(errors).toEqual([]);
   });
 
+  it('after the connection drops the indicator says "Reconnecting…", and on reconnect the board catches up with what it missed', async () => {
+    const gw = await gatewayFor('BR-4', 300);
+    // The browser reaches the service through a TCP relay that the test can cut, like a dropped network.
+    const relay = await startRelay(new URL(t.url).port);
+    const other = await context.newPage();
+    try {
+      await signIn(other, relay.url, MONITOR.email, MONITOR.password);
+      await other.goto(`${relay.url}/board?q=BR-4`);
+      const r = other.locator('tbody tr', { has: other.locator('a[href="/units/BR-4"]') });
+      await r.waitFor();
+      await other.getByRole('status').filter({ hasText: 'Live' }).waitFor();
+      relay.down();
+      await other.getByRole('status').filter({ hasText: 'Reconnecting…' }).waitFor({ timeout: 3000 });
+      // While the browser is cut off the unit keys on: the feed's delta never reaches it.
+      const m = new MessageSeq(1);
+      await gw.publish('telemetry', m.telemetry(Date.now() - 500, 'on', 13.9));
+      await other.waitForTimeout(300);
+      expect(await r.getByText('Key on').count()).toBe(0);
+      relay.up();
+      // Back-off is at most a few seconds after a short outage (1 s steps, doubled, jittered).
+      await other.getByRole('status').filter({ hasText: 'Live' }).waitFor({ timeout: 10_000 });
+      // The server's hello made the board refetch what it missed.
+      await r.getByText('Key on').waitFor({ timeout: 3000 });
+    } finally {
+      await other.close();
+      await relay.close();
+    }
+  });
+
   it('with 2,000 units the board keeps only the rows near the viewport in the page, and search, depot and state tiles filter', async () => {
     const depots = ['East yard', 'West yard'];
     const ids = Array.from({ length: 2000 }, (_, i) => `FL-${String(i).padStart(4, '0')}`);
@@ -170,8 +232,11 @@ describe('the board in a browser', () => {
        SELECT x.id, 'Fleet ' || x.id, x.depot, 24, 120, 12.0, now(), now() FROM unnest($1::text[], $2::text[]) AS x(id, depot)`,
       { bind: [ids, ids.map((_, i) => depots[i % 2])] },
     );
+    const total = (await t.api.get('/api/units').set('Authorization', `Bearer ${admin}`)).body.length as number;
+    const north = total - 2000; // the units of the tests above
+    expect(north).toBeGreaterThan(0);
     await page.goto(`${t.url}/board`);
-    await page.getByText('2003 units').waitFor();
+    await page.getByText(`${total} units`).waitFor();
     const rendered = await page.locator('tbody tr[data-index]').count();
     expect(rendered).toBeGreaterThan(5);
     expect(rendered).toBeLessThan(80);
@@ -185,9 +250,9 @@ describe('the board in a browser', () => {
     expect(await page.locator('tbody tr[data-index], tbody tr:not([aria-hidden])').count()).toBe(1);
     await page.getByRole('searchbox').fill('');
     await page.getByLabel('Depot').selectOption('North yard');
-    await page.getByText('3 of 2003 units').waitFor();
+    await page.getByText(`${north} of ${total} units`).waitFor();
     await page.getByRole('button', { name: /Purge interrupted\s*1/ }).click();
-    await page.getByText('1 of 2003 units').waitFor();
+    await page.getByText(`1 of ${total} units`).waitFor();
     await row('BR-2').waitFor();
     expect(errors).toEqual([]);
   });
