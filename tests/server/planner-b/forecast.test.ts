@@ -6,7 +6,7 @@ import { startTestService, type TestService } from '../../helpers/service';
 import { connectGateway, provision } from '../../helpers/gateway';
 import { MessageSeq } from '../../helpers/messages';
 import { startForecastFake } from '../../../server/dev-fakes/forecast-fake';
-import { addUser, interruptedUnit } from './helpers';
+import { addUser, interruptedUnit, until } from './helpers';
 
 let t: TestService;
 let admin: string;
@@ -90,6 +90,29 @@ describe('depots and forecast warnings', () => {
     expect((await t.api.post('/api/forecast/refresh').set(auth(admin))).body.alerts).toEqual([]);
     const technician = await addUser(t, admin, 'technician');
     expect((await t.api.post('/api/forecast/refresh').set(auth(technician.token))).status).toBe(403);
+  });
+
+  it('a purge still running when the freeze is forecast is warned, and the warning settles when the purge completes', async () => {
+    const g = await provision(t.api, admin, { id: 'FC-4', depot: 'Hill yard', purgeSeconds: 120 });
+    const gw = await connectGateway(t.mqttUrl, g.gatewayId, g.secret);
+    const m = new MessageSeq(1);
+    const t0 = Date.now() - 2000;
+    await gw.publish('telemetry', m.telemetry(t0, 'on', 13.9, { ambientC: -3 }));
+    await gw.publish('telemetry', m.telemetry(t0 + 500, 'off', 12.6, { ambientC: -3 }));
+    await t.api.put('/api/depots/Hill%20yard').set(auth(admin)).send({ latitude: 62.5, longitude: 30.1 });
+    t.service.forecastFake!.setSeries(62.5, 30.1, coldSpell(-18, new Date().getUTCHours() + 6));
+    const refresh = await t.api.post('/api/forecast/refresh').set(auth(admin));
+    const warning = refresh.body.alerts.find((a: { unitId: string }) => a.unitId === 'FC-4');
+    expect(warning).toMatchObject({ kind: 'forecastFreeze', status: 'open' });
+    // The controller goes to sleep: the purge is complete (gateway protocol: ecmAwake false after key-off).
+    await gw.publish('telemetry', m.telemetry(t0 + 30_000, 'off', 12.5, { ambientC: -3, ecmAwake: false }));
+    await gw.end();
+    const settled = await until(async () => {
+      const res = await t.api.get('/api/alerts?unitId=FC-4').set(auth(admin));
+      return res.body.find((a: { id: number; status: string }) => a.id === warning.id && a.status === 'resolved');
+    });
+    expect(settled.comment).toMatch(/settled: completed$/);
+    expect((await t.api.get('/api/forecast/warnings').set(auth(admin))).body.map((w: { unitId: string }) => w.unitId)).not.toContain('FC-4');
   });
 
   it('with FORECAST_URL set, the service asks that server and starts no fake of its own', async () => {
