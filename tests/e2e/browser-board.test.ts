@@ -6,6 +6,9 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { startTestService, type TestService } from '../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
+import { encodeDm1 } from '../../shared/j1939/dm1';
+import { bytesToHex } from '../../shared/j1939/hex';
+import { encodeCanId } from '../../shared/j1939/can-id';
 import { buildClient, collectPageErrors, launchBrowser, screenshot, signIn } from './browser-harness';
 
 /** A TCP relay to the service; `down()` cuts every connection and refuses new ones until `up()`. */
@@ -174,6 +177,37 @@ describe('the board in a browser', () => {
     expect(timeline).toContain('Key off');
     expect(timeline).toContain('Supply lost');
     await screenshot(page, 'unit-page', true);
+  });
+
+  it('the unit page lists a DM1 fault with its FMI in words, the lamps that are on, and a link to the purge that explains it', async () => {
+    const gw = await gatewayFor('BR-5', 120);
+    const m = new MessageSeq(7);
+    const t0 = Date.now() - 30 * 60_000;
+    await gw.publish('telemetry', m.telemetry(t0, 'on', 13.9, { ambientC: 1 }));
+    await gw.publish('telemetry', m.telemetry(t0 + 1_000, 'off', 12.6, { ambientC: 1 }));
+    await gw.publish('power', m.power(t0 + 31_000, 'supply-lost', 1.0));
+    m.nextBoot();
+    const restart = Date.now() - 60_000;
+    await gw.publish('power', m.power(restart, 'boot', 12.4, { ts: t0 + 31_000, cause: 'supply-lost' }));
+    await gw.publish('telemetry', m.telemetry(restart + 1_000, 'on', 12.3, { ambientC: 1 }));
+    // SAE J1939-73 DM1: amber lamp on, one DTC. SPN 520250 lies in the manufacturer-assigned range
+    // (SAE J1939-71: 520192–524287), an invented code; FMI 4 = voltage below normal (J1939-73 FMI table).
+    const dm1 = bytesToHex(encodeDm1({ lamps: { mil: 'off', redStop: 'off', amberWarning: 'on', protect: 'off' }, dtcs: [{ spn: 520250, fmi: 4, occurrenceCount: 2 }] }));
+    const id = encodeCanId({ priority: 6, pgn: 65226, sourceAddress: 0 });
+    await gw.publish('can', m.can(restart + 3_000, [{ t: restart + 2_500, id, data: dm1 }]));
+
+    await page.goto(`${t.url}/units/BR-5`);
+    const fault = page.locator('tbody tr', { hasText: '520250' });
+    await fault.waitFor();
+    const text = await fault.innerText();
+    expect(text).toContain('Voltage below normal');
+    expect(text).toContain('Amber warning');
+    expect(text).not.toContain('Red stop');
+    const link = fault.getByRole('link', { name: /Purge interrupted/ });
+    const [episode] = (await t.api.get('/api/episodes?unitId=BR-5').set('Authorization', `Bearer ${admin}`)).body as { id: number }[];
+    expect(await link.getAttribute('href')).toBe(`#episode-${episode.id}`);
+    expect(await page.locator(`#episode-${episode.id}`).innerText()).toContain('30.0 s');
+    await screenshot(page, 'unit-page-fault', true);
   });
 
   it('a replayed purge from two days ago counts its time in state on the unit\'s clock, not as "2 d"', async () => {

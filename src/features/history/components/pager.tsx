@@ -20,7 +20,7 @@ export function Pager({ page, pageSize, total, onPage, onPageSize }: PagerProps)
         <label className="flex items-center gap-2 text-sm">
           Rows per page
           <select value={pageSize} onChange={(e) => onPageSize(Number(e.target.value))} className="rounded-md border border-line bg-raised px-2 py-1 text-fg">
-            {PAGE_SIZES.map((s) => (
+            {[...new Set([...PAGE_SIZES, pageSize])].sort((a, b) => a - b).map((s) => (
               <option key={s} value={s}>
                 {s}
               </option>

@@ -1,5 +1,5 @@
 // History filters live in the address, so a filtered view can be bookmarked and shared.
-import { EPISODE_SORTS, FAULT_SORTS } from '../../../../shared/api/history-query';
+import { EPISODE_SORTS, FAULT_SORTS, MAX_PAGE_SIZE } from '../../../../shared/api/history-query';
 import { OUTCOMES } from '../../../../shared/api/history';
 
 export type HistoryView = 'episodes' | 'faults';
@@ -22,6 +22,11 @@ export interface HistoryFilters {
 
 const pick = (v: string | null, allowed: readonly string[], fallback: string) => (v && allowed.includes(v) ? v : fallback);
 export const PAGE_SIZES = [25, 50, 100, 200];
+/** Any whole number the server accepts (1..500) may come in the address; the selector offers the usual ones. */
+function readPageSize(v: string | null) {
+  const n = Number(v);
+  return Number.isInteger(n) && n >= 1 && n <= MAX_PAGE_SIZE ? n : 50;
+}
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
 export function readHistoryFilters(p: URLSearchParams): HistoryFilters {
@@ -39,7 +44,7 @@ export function readHistoryFilters(p: URLSearchParams): HistoryFilters {
     sort: pick(p.get('sort'), sorts, sorts[0]),
     dir: p.get('dir') === 'asc' ? 'asc' : 'desc',
     page: Math.max(1, Number.parseInt(p.get('page') ?? '1', 10) || 1),
-    pageSize: PAGE_SIZES.includes(Number(p.get('pageSize'))) ? Number(p.get('pageSize')) : 50,
+    pageSize: readPageSize(p.get('pageSize')),
   };
 }
 

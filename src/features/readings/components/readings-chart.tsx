@@ -66,10 +66,28 @@ function purgeWindowsPlugin(windows: () => PurgeWindow[]): uPlot.Plugin {
   };
 }
 
+// Gateway protocol: a powered gateway reports at least every 15 min. A longer silence (supply cut,
+// isolated) is drawn as a break in the lines rather than a straight line across it.
+const GAP_S = 20 * 60;
+
 function toData(readings: Reading[]): uPlot.AlignedData {
-  // The server returns readings in time order; uPlot wants seconds on x.
+  // uPlot wants ascending seconds on x.
   const sorted = [...readings].sort((a, b) => Date.parse(a.ts) - Date.parse(b.ts));
-  return [sorted.map((r) => Date.parse(r.ts) / 1000), sorted.map((r) => r.supplyV), sorted.map((r) => r.ambientC)];
+  const xs: number[] = [];
+  const volts: (number | null)[] = [];
+  const temps: (number | null)[] = [];
+  for (const r of sorted) {
+    const x = Date.parse(r.ts) / 1000;
+    if (xs.length && x - xs[xs.length - 1] > GAP_S) {
+      xs.push(xs[xs.length - 1] + 1);
+      volts.push(null);
+      temps.push(null);
+    }
+    xs.push(x);
+    volts.push(r.supplyV);
+    temps.push(r.ambientC);
+  }
+  return [xs, volts, temps];
 }
 
 /** Supply voltage (left axis) and ambient (right axis) over the chosen range, purge windows shaded. */
