@@ -113,4 +113,37 @@ describe('the switch page in a browser', () => {
     expect(errors).toEqual([]);
     await context.close();
   });
+
+  it('on the unit page an admin edits the profile and reissues the switch link; a page on the old link says it was withdrawn', async () => {
+    const oldPath = (await t.api.post('/api/switch-pages/SW-8').set('Authorization', `Bearer ${admin}`)).body.path as string;
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    const errors = collectPageErrors(page);
+    const phoneContext = await browser.newContext({ viewport: { width: 390, height: 844 } });
+    const phone = await phoneContext.newPage();
+    await phone.goto(`${t.url}${oldPath}`);
+    await phone.getByText('● Live').waitFor();
+
+    await signIn(page, t.url, ADMIN.email, ADMIN.password);
+    await page.goto(`${t.url}/units/SW-8`);
+    await page.getByRole('heading', { name: 'SW-8' }).waitFor();
+    await page.getByRole('button', { name: 'Edit profile' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Name').fill('Tipper eight');
+    await dialog.getByRole('button', { name: 'Save profile' }).click();
+    await dialog.waitFor({ state: 'hidden' });
+    await page.getByText('Tipper eight').first().waitFor();
+
+    const link = page.getByRole('link', { name: new RegExp(`${oldPath}$`) });
+    await link.waitFor();
+    await page.getByRole('button', { name: 'Reissue link' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Reissue' }).click();
+    await page.getByRole('link', { name: /\/switch\// }).first().waitFor();
+    await expect.poll(async () => (await page.getByRole('link', { name: /\/switch\// }).first().innerText()).endsWith(oldPath)).toBe(false);
+    await phone.getByText('This link was withdrawn').waitFor({ timeout: 3000 });
+    await screenshot(page, 'unit-page-admin', true);
+    expect(errors).toEqual([]);
+    await phoneContext.close();
+    await context.close();
+  });
 });

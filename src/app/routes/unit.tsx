@@ -46,8 +46,14 @@ function UnitHeader({ unit }: { unit: Unit }) {
         <StateBadge state={unit.state} size="xl" detail={left !== null ? `${formatCountdown(left)} left` : undefined} />
         {unit.state && <p className="text-muted">{STATE_HINTS[unit.state]}</p>}
         <p className="font-mono text-sm tabular-nums text-muted">
-          {t ? `in state ${formatDuration(t.ms)}${t.byUnitClock ? ' (unit clock)' : ''}` : ''} · supply {formatVolts(unit.lastSupplyV)} · ambient{' '}
-          {formatCelsius(unit.lastAmbientC)} · last message {formatDateTime(unit.lastSeenAt)}
+          {[
+            t && `in state ${formatDuration(t.ms)}${t.byUnitClock ? ' (unit clock)' : ''}`,
+            `supply ${formatVolts(unit.lastSupplyV)}`,
+            `ambient ${formatCelsius(unit.lastAmbientC)}`,
+            `last message ${formatDateTime(unit.lastSeenAt)}`,
+          ]
+            .filter(Boolean)
+            .join(' · ')}
         </p>
       </div>
     </div>
@@ -131,7 +137,7 @@ function UnitContent({ id }: { id: string }) {
       <Panel title="Supply and ambient" className="mb-6">
         {readings.isError && <ErrorNotice title="Could not load the readings" error={readings.error} />}
         {readings.data && readings.data.length === 0 && <p className="mb-2 text-muted">No readings in this range.</p>}
-        {readings.data && <ReadingsChart readings={readings.data} windows={windows} fromMs={chartTo - RANGES[range].ms} toMs={chartTo} />}
+        {readings.data && readings.data.length > 0 && <ReadingsChart readings={readings.data} windows={windows} fromMs={chartTo - RANGES[range].ms} toMs={chartTo} />}
         <p className="mt-2 text-sm text-muted">
           Shaded: purge windows (key-off to key-off + purge length). Dashed red line marked “× interrupted”: where a purge lost power.
         </p>

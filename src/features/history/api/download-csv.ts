@@ -22,5 +22,5 @@ export async function downloadFile(path: string, query: Record<string, string | 
   document.body.append(a);
   a.click();
   a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+  setTimeout(() => URL.revokeObjectURL(url), 60_000);
 }

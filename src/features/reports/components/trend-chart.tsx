@@ -26,7 +26,7 @@ export function TrendChart({ points, height = 280, label = 'Weekly trend of key-
         { scale: 'p', label: 'Interrupted (%)', side: 1, stroke: INK.share, grid: { show: false } },
       ],
       series: [
-        { value: (_u, v) => labelOf.get(v) ?? '' },
+        { label: 'Week', value: (_u, v) => labelOf.get(v) ?? '' },
         { label: 'Key-offs', scale: 'n', stroke: INK.keyOffs, fill: 'rgba(143, 199, 255, 0.35)', paths: bars, points: { show: false } },
         { label: 'Interrupted', scale: 'n', stroke: INK.interrupted, fill: 'rgba(255, 122, 112, 0.7)', paths: bars, points: { show: false } },
         { label: 'Share interrupted', scale: 'p', stroke: INK.share, width: 2, points: { show: true, size: 7, fill: INK.share }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(0)} %`) },
