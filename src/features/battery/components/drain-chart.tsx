@@ -40,7 +40,7 @@ export function DrainChart({ park, weekendHours, minSoc, height = 320 }: { park:
         { scale: 'v', label: 'Voltage (V)', side: 1, stroke: INK.volts, grid: { show: false } },
       ],
       series: [
-        { value: (_u, v) => (v === null ? '—' : `${v.toFixed(1)} h`) },
+        { label: 'Hours', value: (_u, v) => (v === null ? '—' : `${v.toFixed(1)} h`) },
         { label: 'Rested reading', scale: 's', stroke: INK.rested, width: 0, points: { show: true, size: 5, fill: INK.rested }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(0)} %`) },
         { label: 'Inside rest time (ignored)', scale: 's', stroke: INK.resting, width: 0, points: { show: true, size: 5, fill: INK.resting }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(0)} %`) },
         { label: 'Fitted drain', scale: 's', stroke: INK.fit, width: 2, dash: [8, 4], spanGaps: true, points: { show: false }, value: (_u, v) => (v === null ? '—' : `${v.toFixed(0)} %`) },
