@@ -55,7 +55,7 @@ function alertKnown(qc: QueryClient, id: number): boolean {
   return qc.getQueriesData<AlertView[]>({ queryKey: queryKeys.alerts }).some(([, list]) => list?.some((a) => a.id === id));
 }
 
-/** What each feed message does to the cache. Exported for the browser tests' sake of reading; pure over `qc`. */
+/** What each feed message does to the query cache and the banner; `seen` holds the alert ids this tab has had. */
 export function applyFleetMessage(qc: QueryClient, msg: ServerMessage, seen: Set<number>, now = Date.now()) {
   switch (msg.type) {
     case 'hello':

@@ -78,6 +78,19 @@ beforeAll(async () => {
   context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
   page = await context.newPage();
   errors = collectPageErrors(page);
+  // Counts the tones the page makes with the Web Audio API, to see the alert sound is generated in the page.
+  await page.addInitScript(() => {
+    const w = window as unknown as { __tones: number };
+    w.__tones = 0;
+    const create = AudioContext.prototype.createOscillator;
+    AudioContext.prototype.createOscillator = function (this: AudioContext) {
+      w.__tones += 1;
+      return create.call(this);
+    };
+  });
+  page.on('request', (r) => {
+    if (r.resourceType() === 'media' || /\.(mp3|wav|ogg|m4a)$/i.test(r.url())) errors.push(`audio fetched: ${r.url()}`);
+  });
 }, 120_000);
 
 afterAll(async () => {
@@ -143,10 +156,16 @@ describe('the board in a browser', () => {
     // Left unacknowledged past the set time, it escalates; the banner marks it without a reload.
     await banner.getByText('Escalated').waitFor({ timeout: 5000 });
     await screenshot(page, 'alert-banner');
+    // Three short tones, made in the page (no audio file is fetched: see the request check above).
+    expect(await page.evaluate(() => (window as unknown as { __tones: number }).__tones)).toBe(3);
 
     await banner.getByLabel('Comment (optional)').fill('Driver called, restoring power');
     await banner.getByRole('button', { name: 'Acknowledge' }).click();
     await banner.waitFor({ state: 'detached', timeout: 3000 });
+    // The mute choice is remembered in this browser across a reload.
+    await page.getByRole('button', { name: 'Alert sound on' }).click();
+    await page.reload();
+    await page.getByRole('button', { name: 'Alert sound off' }).waitFor();
 
     await page.getByRole('link', { name: 'Alerts', exact: true }).click();
     await page.getByRole('tab', { name: 'Acknowledged' }).click();
@@ -158,6 +177,19 @@ describe('the board in a browser', () => {
     expect(rowText).toContain('Driver called, restoring power');
     expect(rowText).toMatch(/escalated/i);
     await screenshot(page, 'alerts-acknowledged');
+  });
+
+  it('a technician lands on the units list and sees alerts read-only, with no acknowledge or resolve', async () => {
+    await t.api.post('/api/users').set('Authorization', `Bearer ${admin}`).send({ email: 'tech@test.local', name: 'Workshop', role: 'technician', password: 'technician-password-1' });
+    const other = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+    const tech = await other.newPage();
+    await signIn(tech, t.url, 'tech@test.local', 'technician-password-1');
+    await tech.waitForURL((u) => u.pathname === '/units');
+    await tech.goto(`${t.url}/alerts?status=all`);
+    await tech.locator('tbody tr', { hasText: 'BR-2' }).waitFor();
+    expect(await tech.getByRole('button', { name: /Acknowledge|Resolve/ }).count()).toBe(0);
+    expect(await tech.getByText('Monitors and administrators acknowledge and resolve them.').count()).toBe(1);
+    await other.close();
   });
 
   it('the unit page draws the readings chart and shows the interrupted episode in plain words', async () => {
