@@ -10,9 +10,10 @@ export const BatteryUnitParamSchema = UnitIdSchema;
 
 const Estimate = z.object({
   restedReadings: z.number(),
-  socAtStart: z.number(),
-  interceptPct: z.number(),
-  slopePctPerHour: z.number(),
+  voltsPerHour: z.number(),
+  interceptV: z.number(),
+  socFirst: z.number(),
+  socLast: z.number(),
   drainPctPerHour: z.number(),
   projectedSocAfterWeekend: z.number(),
 });

@@ -23,15 +23,16 @@ export interface VoltageReading { ts: number; volts: number }
 
 export interface DrainEstimate {
   restedReadings: number;
-  /** Fitted state of charge at charging stop (hour 0), percent, clamped to 0..100. */
-  socAtStart: number;
-  /** The fitted line's value at hour 0, unclamped (the line is intercept + slope × hours). */
-  interceptPct: number;
-  /** Negative while the battery drains; percent of charge per hour. */
-  slopePctPerHour: number;
-  /** Drain as a positive figure, percent per hour (0 when the fit rises). */
+  /** Least-squares slope of the rested voltage, volts per hour of the system (negative while draining). */
+  voltsPerHour: number;
+  /** The fitted line's voltage at charging stop (hour 0); the line is interceptV + voltsPerHour × hours. */
+  interceptV: number;
+  /** State of charge on the fitted line at the first and last rested reading, percent. */
+  socFirst: number;
+  socLast: number;
+  /** Fall of the state of charge along the fitted line over the rested span, percent per hour (0 when it rises). */
   drainPctPerHour: number;
-  /** Fitted state of charge 62 h after charging stopped, clamped to 0..100. */
+  /** State of charge on the fitted line 62 h after charging stopped, from the table (so clamped to 0..100). */
   projectedSocAfterWeekend: number;
 }
 
@@ -52,30 +53,36 @@ export function leastSquares(points: readonly { x: number; y: number }[]): { slo
   return { slope, intercept: my - slope * mx };
 }
 
-const clamp = (v: number) => Math.min(100, Math.max(0, v));
-
-/** Readings at or after the rest time, as hours since charging stopped and state of charge. */
-export function restedPoints(chargeStoppedAt: number, readings: readonly VoltageReading[], system: SystemVoltage, restHours = REST_HOURS) {
-  return readings
-    .filter((r) => r.ts - chargeStoppedAt >= restHours * 3_600_000)
-    .map((r) => ({ x: (r.ts - chargeStoppedAt) / 3_600_000, y: stateOfCharge(r.volts, system) }));
+/** Readings at or after the rest time, as hours since charging stopped and volts. */
+export function restedReadings(chargeStoppedAt: number, readings: readonly VoltageReading[], restHours = REST_HOURS) {
+  return readings.filter((r) => r.ts - chargeStoppedAt >= restHours * 3_600_000).map((r) => ({ x: (r.ts - chargeStoppedAt) / 3_600_000, y: r.volts }));
 }
 
-/** The drain of one parked period, or null when too few rested readings cover too short a time. */
+/**
+ * The drain of one park, or null when too few rested readings cover too short a time.
+ * The line is fitted to the voltage, not to the state of charge: the table clamps at 100 % above
+ * 12.65 V (a battery often rests higher for hours) and at 0 % below 11.89 V, and a line through
+ * clamped percentages would hide the drain. The percentages are read off the fitted voltages.
+ */
 export function estimateDrain(chargeStoppedAt: number, readings: readonly VoltageReading[], system: SystemVoltage, restHours = REST_HOURS): DrainEstimate | null {
-  const points = restedPoints(chargeStoppedAt, readings, system, restHours);
+  const points = restedReadings(chargeStoppedAt, readings, restHours);
   if (points.length < MIN_RESTED_READINGS) return null;
-  const span = points[points.length - 1].x - points[0].x;
-  if (span < MIN_RESTED_SPAN_HOURS) return null;
+  const first = points[0].x;
+  const last = points[points.length - 1].x;
+  if (last - first < MIN_RESTED_SPAN_HOURS) return null;
   const fit = leastSquares(points);
   if (!fit) return null;
+  const at = (h: number) => stateOfCharge(fit.intercept + fit.slope * h, system);
+  const socFirst = at(first);
+  const socLast = at(last);
   return {
     restedReadings: points.length,
-    socAtStart: clamp(fit.intercept),
-    interceptPct: fit.intercept,
-    slopePctPerHour: fit.slope,
-    drainPctPerHour: Math.max(0, -fit.slope),
-    projectedSocAfterWeekend: clamp(fit.intercept + fit.slope * WEEKEND_HOURS),
+    voltsPerHour: fit.slope,
+    interceptV: fit.intercept,
+    socFirst,
+    socLast,
+    drainPctPerHour: Math.max(0, (socFirst - socLast) / (last - first)),
+    projectedSocAfterWeekend: at(WEEKEND_HOURS),
   };
 }
 

@@ -2,16 +2,18 @@ import { useEffect, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import type { Park } from '../../../../shared/api/battery';
+import { stateOfCharge } from '../../../../shared/battery/state-of-charge';
 
 // Design tokens (tailwind.config.ts) repeated for the canvas, which cannot read classes.
 const INK = { axis: '#9eabb8', grid: '#2b3643', rested: '#8fc7ff', resting: '#5d6b79', fit: '#f2b84b', floor: '#ff7a70', volts: '#b9a6ff' };
 
 /**
  * One park on hours since charging stopped: state of charge of each reading (dim inside the rest
- * time, where surface charge reads high), the fitted line carried on to the weekend's end, and the
+ * time, where surface charge reads high), the least-squares voltage line read through the table and
+ * carried on to the weekend's end, and the
  * advice's floor; the voltage on the right axis.
  */
-export function DrainChart({ park, weekendHours, minSoc, height = 320 }: { park: Park; weekendHours: number; minSoc: number; height?: number }) {
+export function DrainChart({ park, systemVoltage, weekendHours, minSoc, height = 320 }: { park: Park; systemVoltage: 12 | 24; weekendHours: number; minSoc: number; height?: number }) {
   const host = useRef<HTMLDivElement>(null);
   useEffect(() => {
     const el = host.current;
@@ -21,7 +23,7 @@ export function DrainChart({ park, weekendHours, minSoc, height = 320 }: { park:
     const xs = [...hours, weekendHours];
     const e = park.estimate;
     const firstRested = hours.find((_, i) => park.readings[i].rested) ?? Infinity;
-    const fit = (h: number) => (e && h >= firstRested ? Math.min(100, Math.max(0, e.interceptPct + e.slopePctPerHour * h)) : null);
+    const fit = (h: number) => (e && h >= firstRested ? stateOfCharge(e.interceptV + e.voltsPerHour * h, systemVoltage) : null);
     const data: uPlot.AlignedData = [
       xs,
       [...park.readings.map((r) => (r.rested ? r.soc : null)), null],
@@ -55,6 +57,6 @@ export function DrainChart({ park, weekendHours, minSoc, height = 320 }: { park:
       ro.disconnect();
       u.destroy();
     };
-  }, [park, weekendHours, minSoc, height]);
+  }, [park, systemVoltage, weekendHours, minSoc, height]);
   return <div ref={host} className="afterwatch-chart w-full" role="img" aria-label="State of charge while parked, with the fitted drain and the weekend projection" />;
 }

@@ -40,7 +40,7 @@ export function UnitBattery({ unitId, days }: { unitId: string; days: number }) 
               ))}
             </select>
           </label>
-          <DrainChart park={park} weekendHours={weekendHours} minSoc={minWeekendSoc} />
+          <DrainChart park={park} systemVoltage={summary.systemVoltage} weekendHours={weekendHours} minSoc={minWeekendSoc} />
         </>
       )}
     </div>
