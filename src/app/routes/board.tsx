@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import { CautionNote } from '../../components/ui/caution-note';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
@@ -8,7 +8,8 @@ import { bannerAlerts, liveStatus } from '../../lib/live-feed';
 import { useStore } from '../../lib/live-store';
 import { useSession } from '../../lib/session';
 import { nextSort } from '../../lib/sort';
-import { AlertBanner } from '../../features/alerts/components/alert-banner';
+import { useAlerts } from '../../features/alerts/api/get-alerts';
+import { AlertBanner, AlertSoundToggle } from '../../features/alerts/components/alert-banner';
 import { useUnits } from '../../features/units/api/get-units';
 import { BoardTable } from '../../features/units/components/board-table';
 import { StateSummary } from '../../features/units/components/state-summary';
@@ -21,6 +22,8 @@ export function BoardPage() {
   // While the feed is live it writes every change into this cache; poll only when it is down.
   const units = useUnits({ refetchInterval: live ? false : 10_000 });
   const alerts = useStore(bannerAlerts);
+  // Every open alert, also those raised before this page was opened (the banner only takes new ones).
+  const openAlerts = useAlerts({ status: 'open' });
   const role = useSession()?.user.role;
   const [params, setParams] = useSearchParams();
   const filters = readUnitFilters(params);
@@ -41,11 +44,22 @@ export function BoardPage() {
         title="Board"
         description="Every unit's purge state as it happens. Choose a state to show only those units."
         actions={
-          all && (
-            <p className="self-center text-lg text-muted" aria-live="polite">
-              {shown.length === all.length ? `${all.length} unit${all.length === 1 ? '' : 's'}` : `${shown.length} of ${all.length} units`}
-            </p>
-          )
+          <div className="flex items-center gap-6 self-center">
+            <AlertSoundToggle />
+            {openAlerts.data && openAlerts.data.length > 0 && (
+              <Link to="/alerts" className="inline-flex items-center gap-2 text-lg font-semibold text-state-interrupted hover:underline">
+                <svg viewBox="0 0 20 20" aria-hidden="true" className="h-5 w-5">
+                  <path d="M10 2 19 18H1z" fill="currentColor" />
+                </svg>
+                {openAlerts.data.length} open alert{openAlerts.data.length === 1 ? '' : 's'}
+              </Link>
+            )}
+            {all && (
+              <p className="text-lg text-muted" aria-live="polite">
+                {shown.length === all.length ? `${all.length} unit${all.length === 1 ? '' : 's'}` : `${shown.length} of ${all.length} units`}
+              </p>
+            )}
+          </div>
         }
       />
       {all && <StateSummary counts={counts} selected={filters.state} onSelect={(state) => setFilters({ ...filters, state })} />}

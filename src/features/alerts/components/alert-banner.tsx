@@ -101,9 +101,26 @@ function BannerItem({ alert, canAct, name }: { alert: AlertView; canAct: boolean
   );
 }
 
-/** New open alerts that came in over the live feed, loud and at the top of the board. */
-export function AlertBanner({ alerts, canAct, unitName }: AlertBannerProps) {
+/** The monitor's mute switch for the alert sound, remembered in this browser. */
+export function AlertSoundToggle() {
   const muted = useStore(alertSoundMuted);
+  return (
+    <Button size="sm" variant="ghost" aria-pressed={muted} onClick={() => setAlertSoundMuted(!muted)}>
+      <svg viewBox="0 0 20 20" aria-hidden="true" className="h-4 w-4">
+        <path d="M3 8h3l4-4v12l-4-4H3z" fill="currentColor" />
+        {muted ? (
+          <path d="m13 7 5 6m0-6-5 6" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
+        ) : (
+          <path d="M13 7.5a3.5 3.5 0 0 1 0 5M15 5a7 7 0 0 1 0 10" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
+        )}
+      </svg>
+      {muted ? 'Alert sound off' : 'Alert sound on'}
+    </Button>
+  );
+}
+
+/** New open alerts that came in over the live feed, loud and at the top of the board; a short sound for each new one. */
+export function AlertBanner({ alerts, canAct, unitName }: AlertBannerProps) {
   const heard = useRef(new Set<number>());
   useEffect(() => {
     const fresh = alerts.filter((a) => !heard.current.has(a.id));
@@ -111,28 +128,14 @@ export function AlertBanner({ alerts, canAct, unitName }: AlertBannerProps) {
     if (fresh.length > 0) playAlertSound();
   }, [alerts]);
 
+  if (alerts.length === 0) return null;
   return (
-    <section aria-label="New alerts" className="mb-6 flex flex-col gap-3">
-      <div className="flex justify-end">
-        <Button size="sm" variant="ghost" aria-pressed={muted} onClick={() => setAlertSoundMuted(!muted)}>
-          <svg viewBox="0 0 20 20" aria-hidden="true" className="h-4 w-4">
-            <path d="M3 8h3l4-4v12l-4-4H3z" fill="currentColor" />
-            {muted ? (
-              <path d="m13 7 5 6m0-6-5 6" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" />
-            ) : (
-              <path d="M13 7.5a3.5 3.5 0 0 1 0 5M15 5a7 7 0 0 1 0 10" fill="none" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
-            )}
-          </svg>
-          {muted ? 'Alert sound off' : 'Alert sound on'}
-        </Button>
+    <section aria-label="New alerts" className="mb-6">
+      <div role="alert" className="flex flex-col gap-3">
+        {alerts.map((a) => (
+          <BannerItem key={a.id} alert={a} canAct={canAct} name={unitName?.(a.unitId)} />
+        ))}
       </div>
-      {alerts.length > 0 && (
-        <div role="alert" className="flex flex-col gap-3">
-          {alerts.map((a) => (
-            <BannerItem key={a.id} alert={a} canAct={canAct} name={unitName?.(a.unitId)} />
-          ))}
-        </div>
-      )}
     </section>
   );
 }

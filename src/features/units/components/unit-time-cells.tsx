@@ -1,5 +1,6 @@
 import { StateBadge } from '../../../components/ui/state-badge';
 import { formatCountdown, formatDuration } from '../../../lib/format';
+import { timeInState } from '../../../lib/time-in-state';
 import { useNow } from '../../../lib/use-now';
 import { remainingSeconds } from '../lib/purge-countdown';
 import type { Unit } from '../types';
@@ -15,8 +16,14 @@ function PurgingBadge({ purgeRemainingS, fetchedAt }: { purgeRemainingS: number 
   return <StateBadge state="purging" detail={left !== null ? `${formatCountdown(left)} left` : undefined} />;
 }
 
-export function TimeInStateCell({ since }: { since: string | null }) {
-  const now = useNow();
-  const t = since ? Date.parse(since) : NaN;
-  return <span className="font-mono tabular-nums">{Number.isNaN(t) ? '—' : formatDuration(now - t)}</span>;
+/** Time in state, on the unit's own clock for replayed past data (see lib/time-in-state.ts). */
+export function TimeInStateCell({ unit }: { unit: Unit }) {
+  const t = timeInState(unit, useNow());
+  if (!t) return <span className="font-mono tabular-nums">—</span>;
+  return (
+    <span className="font-mono tabular-nums">
+      {formatDuration(t.ms)}
+      {t.byUnitClock && <span className="ml-1 font-sans text-sm text-muted">(unit clock)</span>}
+    </span>
+  );
 }

@@ -29,7 +29,7 @@ export function UnitsTable({ units, fetchedAt, sort, onSortChange }: UnitsTableP
       key: 'timeInState',
       header: 'In state',
       sortable: true,
-      cell: (u) => <TimeInStateCell since={u.stateSince} />,
+      cell: (u) => <TimeInStateCell unit={u} />,
     },
     { key: 'lastSupplyV', header: 'Supply', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatVolts(u.lastSupplyV)}</span> },
     { key: 'lastAmbientC', header: 'Ambient', sortable: true, align: 'right', cell: (u) => <span className={mono}>{formatCelsius(u.lastAmbientC)}</span> },
