@@ -177,6 +177,17 @@ describe('the board in a browser', () => {
     expect(rowText).toContain('Driver called, restoring power');
     expect(rowText).toMatch(/escalated/i);
     await screenshot(page, 'alerts-acknowledged');
+
+    await alertRow.getByRole('button', { name: 'Resolve' }).click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByLabel('Comment (optional)').fill('Purge rerun, safe to isolate');
+    await dialog.getByRole('button', { name: 'Resolve' }).click();
+    await alertRow.waitFor({ state: 'detached', timeout: 3000 });
+    await page.getByRole('tab', { name: 'Resolved' }).click();
+    const resolved = page.locator('tbody tr', { hasText: 'BR-2' });
+    await resolved.waitFor();
+    expect(await resolved.innerText()).toContain('Purge rerun, safe to isolate');
+    expect(await resolved.getByRole('button').count()).toBe(0);
   });
 
   it('a technician lands on the units list and sees alerts read-only, with no acknowledge or resolve', async () => {
