@@ -46,7 +46,7 @@ async function main() {
   if (config.DEMO) {
     sim = spawn(process.execPath, [join('node_modules', 'tsx', 'dist', 'cli.mjs'), 'simulator/cli.ts', '--scenario', 'demo', '--speed', '1'], {
       stdio: ['ignore', 'inherit', 'inherit'],
-      env: { ...env, API_URL: url, MQTT_URL: `mqtt://${config.MQTT_HOST}:${service.mqttPort}`, DATA_DIR: config.DATA_DIR },
+      env: { ...env, API_URL: url, MQTT_URL: `mqtt://${config.MQTT_HOST}:${service.mqttPort}`, DATA_DIR: config.DATA_DIR, ADMIN_EMAIL: config.ADMIN_EMAIL, ADMIN_PASSWORD: config.ADMIN_PASSWORD },
     });
     sim.on('exit', (code) => {
       if (!stopping && code) say(`[demo] the demo simulator stopped (exit ${code}); the service keeps running`);

@@ -151,7 +151,7 @@ export async function deleteEpisodes(sequelize: Sequelize, t: Transaction, ids: 
 export async function loadBootEvents(sequelize: Sequelize, unitId: string, stream: number, boot: number, t?: Transaction) {
   const rows = await sequelize.query<MessageRow>(
     `SELECT stream, boot, seq, kind, payload, received_at FROM messages
-     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3, $3 + 1) ORDER BY stream, boot, seq, received_at`,
+     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3::bigint, $3::bigint + 1) ORDER BY stream, boot, seq, received_at`,
     { bind: [unitId, stream, boot], type: QueryTypes.SELECT, transaction: t },
   );
   return rows.map(eventFromRow);

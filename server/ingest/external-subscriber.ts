@@ -2,7 +2,8 @@
 // broker waits for accept() (handleMessage's callback), so the broker keeps what was not committed.
 import mqtt, { type MqttClient } from 'mqtt';
 import type { Logger } from 'pino';
-import { parseTopic, UPLINK_WILDCARD } from '../../shared/protocol/topics';
+import { parseTopic } from '../../shared/protocol/topics';
+import { TOPIC_ROOT } from '../../shared/protocol/limits';
 import type { Accept } from '../../broker/types';
 
 export interface ExternalIngestOptions {
@@ -29,30 +30,59 @@ export async function startExternalIngest(opts: ExternalIngestOptions): Promise<
     clientId: opts.clientId, username: opts.username, password: opts.password,
     clean: false, protocolVersion: 4, reconnectPeriod: 1000, connectTimeout: 10_000,
   });
-  // mqtt.js answers a QoS 1 message when this callback is called: only after the commit.
+  // mqtt.js handles incoming packets one at a time and sends the PUBACK from handleMessage's callback,
+  // so waiting there for the commit would let one message through per batch. Instead the callback is
+  // told to skip its PUBACK (it moves on to the next packet) and the PUBACK goes out here after the
+  // commit, on the same connection only: after a reconnect the broker redelivers, and the copy is a duplicate.
+  let connection = 0;
+  client.on('connect', () => connection++);
+  const SKIP_ACK = new Error('acknowledged after commit');
   client.handleMessage = (packet, callback) => {
     const topic = packet.topic;
     const parsed = parseTopic(topic);
     const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
     const gatewayId = parsed?.gatewayId ?? '';
+    const qos = packet.qos;
+    const messageId = packet.messageId;
+    const receivedOn = connection;
+    if (qos === 1) callback(SKIP_ACK);
     const attempt = (delay: number) => {
       opts.accept(gatewayId, topic, payload).then(
-        () => callback(),
+        () => {
+          if (qos === 0) return callback();
+          if (receivedOn === connection && client.connected) {
+            (client as unknown as { _sendPacket(p: object, cb: () => void): void })._sendPacket({ cmd: 'puback', messageId }, () => {});
+          }
+        },
         (err: Error) => {
           // Not committed (the database is away): keep trying; the broker holds the rest meanwhile.
           opts.log.warn({ err: err.message, gatewayId, retryInMs: delay }, 'ingest paused: message not committed');
-          setTimeout(() => attempt(Math.min(delay * 2, 5000)), delay);
+          if (receivedOn === connection) setTimeout(() => attempt(Math.min(delay * 2, 5000)), delay);
         },
       );
     };
     attempt(100);
   };
+  // The broker may come up after the service: mqtt.js retries every second; give up after 30 s with the last error.
   await new Promise<void>((res, rej) => {
-    client.once('connect', () => res());
-    client.once('error', rej);
+    let last = 'no answer';
+    const onError = (err: Error) => (last = err.message);
+    const timer = setTimeout(() => {
+      client.off('error', onError);
+      client.end(true);
+      rej(new Error(`could not reach the external broker at ${opts.url} within 30 s (${last})`));
+    }, 30_000);
+    client.on('error', onError);
+    client.once('connect', () => {
+      clearTimeout(timer);
+      client.off('error', onError);
+      res();
+    });
   });
-  const topic = `$share/${opts.group}/${UPLINK_WILDCARD}`;
-  await new Promise<void>((res, rej) => client.subscribe(topic, { qos: 1 }, (err) => (err ? rej(err) : res())));
+  // The gateways' uplink topics only: the indicators the workers publish are not theirs to ingest.
+  const topics = (['telemetry', 'can', 'power', 'status'] as const).map((k) => `$share/${opts.group}/${TOPIC_ROOT}/+/${k}`);
+  const topic = topics.join(', ');
+  await new Promise<void>((res, rej) => client.subscribe(topics, { qos: 1 }, (err) => (err ? rej(err) : res())));
   client.on('error', (err) => opts.log.warn({ err: err.message }, 'external broker connection error'));
   opts.log.info({ url: opts.url, topic }, 'ingest subscribed on the external broker');
   return {

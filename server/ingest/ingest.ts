@@ -8,7 +8,7 @@ import type { IngestItem, MessageItem, QuarantineItem } from './items';
 import { insertMessages, insertQuarantine, messageKey } from './store';
 import { judgeUnitInBatch } from './unit-judge';
 import { ingestCan, linkSpan, relinkFaults } from './unit-faults';
-import { unitNow, type UnitMemory } from './unit-memory';
+import type { UnitMemory } from './unit-memory';
 import { createFleetEvents, type EpisodeChange, type UnitChange } from './fleet-events';
 import { UnitBook } from './unit-book';
 import { positionKey } from '../detection/positions';
@@ -80,14 +80,13 @@ export function createIngest(opts: IngestOptions) {
       for (const unitId of units) {
         let mem = await book.get(unitId, t);
         if (!mem) continue;
+        // Counted before the savepoint: even a judgement that fails below marks the unit as changed, so
+        // no worker keeps trusting a memory that lacks the messages this batch stores.
+        const version = opts.shared ? await claimUnit(t, unitId) : null;
         try {
           await sequelize.query('SAVEPOINT unit_judge', { transaction: t });
-          let version: number | null = null;
-          if (opts.shared) {
-            version = await claimUnit(t, unitId);
-            // Another worker judged this unit since our memory was made: start again from the database.
-            if (version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
-          }
+          // Another worker judged this unit since our memory was made: start again from the database.
+          if (version !== null && version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
           const r = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
           if (version !== null) r.memory.version = version;
           await sequelize.query('RELEASE SAVEPOINT unit_judge', { transaction: t });
@@ -125,7 +124,8 @@ export function createIngest(opts: IngestOptions) {
   }
 
   async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]) {
-    const r = await judgeUnitInBatch(sequelize, t, mem, items.map((i) => ({ event: i.event, receivedAt: i.receivedAt })), wallNow());
+    const wall = wallNow();
+    const r = await judgeUnitInBatch(sequelize, t, mem, items.map((i) => ({ event: i.event, receivedAt: i.receivedAt })), (m) => book.clock(m, wall));
     const can = items.filter((i) => i.frames).map((i) => ({ position: i.event, frames: i.frames! }));
     const faults = await ingestCan(sequelize, t, r.memory, can);
     // Links can change where a fault arrived or where an interrupted episode changed (before or after).
@@ -160,6 +160,7 @@ export function createIngest(opts: IngestOptions) {
   const ticking = new Set<string>();
   function tick() {
     const wall = wallNow();
+    book.updateFleetClock(wall);
     for (const unitId of book.dueUnits(wall)) {
       if (ticking.has(unitId)) continue;
       ticking.add(unitId);
@@ -195,7 +196,7 @@ export function createIngest(opts: IngestOptions) {
     },
     unitNow: (unitId: string) => {
       const m = book.peek(unitId);
-      return m ? unitNow(m, wallNow()) : wallNow();
+      return m ? book.clock(m, wallNow()) : wallNow();
     },
     async stop() {
       if (ticker) clearInterval(ticker);

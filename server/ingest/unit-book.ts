@@ -21,8 +21,35 @@ export const profileOf = (u: Unit): UnitProfile => ({
 export class UnitBook {
   private units = new Map<string, UnitMemory>();
   private tickedAt = new Map<string, number>();
+  /** The fleet's event time: the median of the units' clocks (see clock()). */
+  private fleetNow: number | null = null;
 
   constructor(private sequelize: Sequelize, private wallNow: () => number, private log: Logger) {}
+
+  /**
+   * The clock a unit is judged by: its own (event time running on since its last message) or the
+   * fleet's, whichever is later. In a fast replay a silent unit's own clock hardly moves, while the
+   * rest of the fleet's messages show how far event time has gone; the median keeps one gateway with
+   * a wrong clock from moving everyone.
+   */
+  clock(m: UnitMemory, wall: number): number {
+    const own = unitNow(m, wall);
+    return this.fleetNow === null ? own : Math.max(own, this.fleetNow + Math.max(0, wall - this.fleetAt));
+  }
+  private fleetAt = 0;
+
+  /** Recomputes the fleet's clock; called by the ingest's ticker. */
+  updateFleetClock(wall: number) {
+    const clocks: number[] = [];
+    for (const m of this.units.values()) if (m.lastTs !== null) clocks.push(unitNow(m, wall));
+    if (clocks.length < 3) {
+      this.fleetNow = null;
+      return;
+    }
+    clocks.sort((a, b) => a - b);
+    this.fleetNow = clocks[Math.floor(clocks.length / 2)];
+    this.fleetAt = wall;
+  }
 
   unitIds(): string[] {
     return [...this.units.keys()];
@@ -94,7 +121,7 @@ export class UnitBook {
       profile: { purgeSeconds: profile.purgeSeconds, lossThresholdV: profile.lossThresholdV },
       events: orderEvents(rows.map((r) => r.event)),
       previousEpisodes: [...m.episodes.values()].map((s) => s.episode),
-      now: unitNow(m, this.wallNow()),
+      now: this.clock(m, this.wallNow()),
       context: null,
     };
     m.state = judgeUnit(input).state;
@@ -130,7 +157,7 @@ export class UnitBook {
       let deadline: number | null = c !== null ? c + SETTLE_GRACE_MS : null;
       if (m.lastTs !== null && m.state?.state === 'keyOn') deadline = Math.min(deadline ?? Infinity, m.lastTs + KEY_ON_SILENCE_MS);
       if (m.lastTs !== null && m.state?.state === 'safeToIsolate') deadline = Math.min(deadline ?? Infinity, m.lastTs + SAFE_SILENCE_MS);
-      if (deadline === null || unitNow(m, wall) < deadline) continue;
+      if (deadline === null || this.clock(m, wall) < deadline) continue;
       if (this.tickedAt.get(unitId) === deadline) continue;
       this.tickedAt.set(unitId, deadline);
       due.push(unitId);
@@ -142,7 +169,7 @@ export class UnitBook {
     const m = this.units.get(unitId);
     if (!m) return emptyLiveUnitView;
     const c = this.openC(m);
-    const now = unitNow(m, this.wallNow());
+    const now = this.clock(m, this.wallNow());
     const remaining = m.state?.state === 'purging' && c !== null ? Math.max(0, Math.ceil((c - now) / 1000)) : null;
     return {
       state: m.state?.state ?? null,

@@ -5,7 +5,7 @@ import { judgeUnit } from '../detection/judge-unit';
 import { judgingWindow } from '../detection/window';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
-import { cloneMemory, unitNow, type StoredEpisode, type UnitMemory } from './unit-memory';
+import { cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
 import { deleteEpisodes, loadBootEvents, loadEpisodes, upsertEpisodes } from './episode-store';
 
 export interface JudgeResult {
@@ -23,7 +23,7 @@ export async function judgeUnitInBatch(
   t: Transaction,
   current: UnitMemory,
   fresh: { event: UnitEvent; receivedAt: number }[],
-  wallNow: number,
+  clock: (m: UnitMemory) => number,
 ): Promise<JudgeResult> {
   const m = cloneMemory(current);
   const unitId = m.profile.unitId;
@@ -58,7 +58,7 @@ export async function judgeUnitInBatch(
     }
   };
 
-  const now = unitNow(m, wallNow);
+  const now = clock(m);
   const input: JudgeInput = {
     profile: { purgeSeconds: m.profile.purgeSeconds, lossThresholdV: m.profile.lossThresholdV },
     events: orderEvents([...m.events, ...inWindow]),
@@ -110,7 +110,12 @@ async function judgeOldStretch(
       now,
       context: null,
     });
-    const outside = j.episodes.filter((e) => e.keyOff.boot === boot && (!m.windowStart || comparePositions(e.keyOff, m.windowStart) < 0));
+    const before = (p: Episode['keyOff']) => p.boot === boot && (!m.windowStart || comparePositions(p, m.windowStart) < 0);
+    const outside = j.episodes.filter((e) => before(e.keyOff));
+    // As in the window: a stored key-off of this stretch that is no longer one goes.
+    const kept = new Set(outside.map((e) => positionKey(e.keyOff)));
+    const gone = [...stored.values()].filter((s) => before(s.episode.keyOff) && !kept.has(positionKey(s.episode.keyOff)));
+    await deleteEpisodes(sequelize, t, gone.map((g) => g.id));
     await write(outside, stored);
   }
 }

@@ -48,3 +48,25 @@ export async function writeMosquittoFiles(dir: string, serviceUser: string, serv
     }
   }
 }
+
+/** A Mosquitto configuration for the documented external-broker path (see README, "Scaling out"). */
+export function mosquittoConf(dir: string, opts: { host: string; port: number; runAsRoot: boolean }): string {
+  return [
+    '# Written by Afterwatch (npm run mosquitto:config). The service keeps passwd and acl up to date.',
+    `listener ${opts.port} ${opts.host}`,
+    'allow_anonymous false',
+    `password_file ${join(dir, 'passwd')}`,
+    `acl_file ${join(dir, 'acl')}`,
+    // Gateway protocol: payloads of at most 64 KiB; the rest of a PUBLISH (topic, header) fits in the margin.
+    'max_packet_size 66000',
+    'persistence true',
+    `persistence_location ${join(dir, 'data')}/`,
+    'autosave_interval 5',
+    `pid_file ${join(dir, 'mosquitto.pid')}`,
+    'max_queued_messages 100000',
+    // Unacknowledged messages in flight to each ingest worker: the workers' backpressure.
+    'max_inflight_messages 1000',
+    ...(opts.runAsRoot ? ['user root'] : []),
+    '',
+  ].join('\n');
+}

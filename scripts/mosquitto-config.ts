@@ -1,0 +1,29 @@
+// `npm run mosquitto:config`: writes MOSQUITTO_DIR/mosquitto.conf, passwd and acl from the gateways table,
+// for running the service behind Mosquitto (README: "Scaling out"). Needs DATABASE_URL and MQTT_SERVICE_PASSWORD.
+import 'dotenv/config';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { loadConfig } from '../server/config';
+import { connectDb, migrate } from '../server/db/index';
+import { mosquittoConf, writeMosquittoFiles } from '../server/modules/gateways/mosquitto-files';
+
+async function main() {
+  const config = loadConfig();
+  if (!config.MOSQUITTO_DIR || !config.DATABASE_URL || !config.MQTT_SERVICE_PASSWORD) {
+    throw new Error('set MOSQUITTO_DIR, DATABASE_URL and MQTT_SERVICE_PASSWORD');
+  }
+  const dir = resolve(config.MOSQUITTO_DIR);
+  mkdirSync(join(dir, 'data'), { recursive: true });
+  const port = config.MQTT_URL ? Number(new URL(config.MQTT_URL).port || 1883) : config.MQTT_PORT;
+  writeFileSync(join(dir, 'mosquitto.conf'), mosquittoConf(dir, { host: config.MQTT_HOST, port, runAsRoot: process.getuid?.() === 0 }));
+  const db = await connectDb(config.DATABASE_URL);
+  await migrate(db.sequelize);
+  await writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, config.MQTT_SERVICE_PASSWORD);
+  await db.close();
+  process.stdout.write(`wrote ${join(dir, 'mosquitto.conf')}, passwd and acl; start it with: mosquitto -c ${join(dir, 'mosquitto.conf')}\n`);
+}
+
+main().catch((err) => {
+  process.stderr.write(`${err instanceof Error ? err.message : String(err)}\n`);
+  process.exit(1);
+});
