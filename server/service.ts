@@ -18,6 +18,7 @@ import { startAlertEngine } from './modules/alerts/engine';
 import { switchAdminRoutes, switchPublicRoutes } from './modules/switch/routes';
 import { unitOfSwitchToken } from './modules/switch/service';
 import { readingRoutes } from './modules/readings/routes';
+import { metricsRoutes } from './modules/metrics/routes';
 import { historyRoutes } from './modules/history/routes';
 import { reportRoutes } from './modules/reports/routes';
 import { driverRoutes } from './modules/drivers/routes';
@@ -142,6 +143,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       ['/episodes', episodeRoutes()],
       ['/faults', faultRoutes()],
       ['/alerts', alertRoutes(ctx, publishAlert)],
+      ['/metrics', metricsRoutes(() => ({ worker: config.INGEST_WORKER_ID, ingest: ingest.counters, judgeErrors: ingest.judgeErrors.count, backlog: ingest.backlog, broker: broker.counters, liveClients: feed?.peers() ?? 0 }))],
       ['/switch-pages', switchAdminRoutes(ctx, (unitId) => feed?.dropSwitch(unitId))],
       ['/work-orders', workOrderRoutes(ctx)],
       ['/roster', rosterRoutes(ctx)],
