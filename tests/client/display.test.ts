@@ -65,8 +65,14 @@ describe('profile inputs', () => {
 
 describe('navigation by role', () => {
   it('shows the admin pages to admins only', () => {
-    expect(navFor('admin').map((i) => i.label)).toEqual(['Units', 'Users', 'Units & profiles', 'Gateways', 'Audit log']);
-    for (const role of ['monitor', 'planner', 'technician'] as const) expect(navFor(role).map((i) => i.label)).toEqual(['Units']);
+    const adminOnly = ['Users', 'Units & profiles', 'Gateways', 'Audit log', 'Switch codes', 'Roster import', 'Mailbox'];
+    expect(navFor('admin').map((i) => i.label)).toEqual(expect.arrayContaining(['Board', 'Alerts', 'Units', ...adminOnly]));
+    for (const role of ['monitor', 'planner', 'technician'] as const) {
+      const labels = navFor(role).map((i) => i.label);
+      expect(labels).toEqual(expect.arrayContaining(['Board', 'Alerts', 'Units', 'Work orders']));
+      for (const a of adminOnly) expect(labels).not.toContain(a);
+      expect(navFor(role).every((i) => i.group === 'main')).toBe(true);
+    }
   });
 });
 

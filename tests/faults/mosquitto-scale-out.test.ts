@@ -63,7 +63,8 @@ describe('behind Mosquitto with two ingest workers', () => {
     const counter = new pgm.Client({ connectionString: db.url });
     await counter.connect();
     let last = -1;
-    for (let stable = 0; stable < 3; ) {
+    // Quiet for 6 s: longer than a worker's longest retry pause (5 s) after a failed commit.
+    for (let stable = 0; stable < 6; ) {
       await new Promise((r) => setTimeout(r, 1000));
       const n = Number((await counter.query('SELECT count(*) n FROM messages')).rows[0].n);
       stable = n === last ? stable + 1 : 0;
@@ -74,6 +75,7 @@ describe('behind Mosquitto with two ingest workers', () => {
     await api.login(ADMIN.email, ADMIN.password);
     const episodes = await fetchSettledEpisodes(api, truth, 30_000, () => {});
     const verdict = compareEpisodes(truth, episodes);
+    if (verdict.misses.length || verdict.falseFindings.length) console.error(`worker logs on failure:\n${w1.output()}\n---\n${w2.output()}`);
     expect(verdict.misses).toEqual([]);
     expect(verdict.falseFindings).toEqual([]);
     // Both workers took part.
