@@ -73,7 +73,7 @@ describe('history in a browser', () => {
     await page.getByText('Rows 5–8 of 11').waitFor();
     await page.getByRole('button', { name: 'Next' }).click();
     await page.getByText('Rows 9–11 of 11').waitFor();
-    expect(await bodyRows().count()).toBe(3);
+    await expect.poll(() => bodyRows().count()).toBe(3);
     expect(await page.getByRole('button', { name: 'Next' }).isDisabled()).toBe(true);
     expect(new URL(page.url()).searchParams.get('page')).toBe('3');
     await page.getByRole('tab', { name: 'Faults' }).click();

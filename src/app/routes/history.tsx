@@ -1,5 +1,4 @@
 import { useState } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { Button } from '../../components/ui/button';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
@@ -12,7 +11,8 @@ import { HistoryFiltersBar } from '../../features/history/components/history-fil
 import { EpisodeHistoryTable } from '../../features/history/components/episode-history-table';
 import { FaultHistoryTable } from '../../features/history/components/fault-history-table';
 import { Pager } from '../../features/history/components/pager';
-import { historyQuery, readHistoryFilters, writeHistoryFilters, type HistoryFilters, type HistoryView } from '../../features/history/lib/history-params';
+import { historyQuery, type HistoryView } from '../../features/history/lib/history-params';
+import { useHistoryFilters } from '../../features/history/lib/use-history-filters';
 
 function ViewTabs({ view, onView }: { view: HistoryView; onView: (v: HistoryView) => void }) {
   const tab = (v: HistoryView, label: string) => (
@@ -25,9 +25,7 @@ function ViewTabs({ view, onView }: { view: HistoryView; onView: (v: HistoryView
 }
 
 export function HistoryPage() {
-  const [params, setParams] = useSearchParams();
-  const filters = readHistoryFilters(params);
-  const setFilters = (f: HistoryFilters) => setParams(writeHistoryFilters(f), { replace: true });
+  const { filters, update } = useHistoryFilters();
   const units = useUnits();
   const drivers = useDrivers();
   const episodes = useHistoryEpisodes(filters);
@@ -38,7 +36,7 @@ export function HistoryPage() {
 
   const unitList = units.data ?? [];
   const depots = [...new Set(unitList.map((u) => u.depot))].sort();
-  const onSort = (key: string) => setFilters({ ...filters, sort: key, dir: filters.sort === key && filters.dir === 'desc' ? 'asc' : 'desc', page: 1 });
+  const onSort = (key: string) => update({ sort: key, dir: filters.sort === key && filters.dir === 'desc' ? 'asc' : 'desc', page: 1 });
   const exportCsv = async () => {
     setExporting(true);
     setExportError(null);
@@ -58,8 +56,8 @@ export function HistoryPage() {
         description="Key-off purges and faults across the fleet. Times are shown in your time zone; the day filters are UTC days. The export holds every row of the filter, not only this page."
         actions={<Button variant="primary" onClick={exportCsv} disabled={exporting}>{exporting ? 'Exporting…' : 'Export CSV'}</Button>}
       />
-      <ViewTabs view={filters.view} onView={(view) => setFilters({ ...filters, view, sort: view === 'faults' ? 'at' : 'keyOffAt', dir: 'desc', page: 1, outcome: '', linked: '' })} />
-      <HistoryFiltersBar filters={filters} depots={depots} units={unitList} drivers={drivers.data ?? []} onChange={setFilters} />
+      <ViewTabs view={filters.view} onView={(view) => update({ view, sort: view === 'faults' ? 'at' : 'keyOffAt', dir: 'desc', page: 1, outcome: '', linked: '' })} />
+      <HistoryFiltersBar filters={filters} depots={depots} units={unitList} drivers={drivers.data ?? []} onChange={update} />
       {exportError !== null && <ErrorNotice title="The export failed" error={exportError} />}
       {current.isPending && <Loading label="Loading history…" />}
       {current.isError && <ErrorNotice title="Could not load the history" error={current.error} />}
@@ -70,8 +68,9 @@ export function HistoryPage() {
         <FaultHistoryTable rows={faults.data.rows} sort={{ key: filters.sort, direction: filters.dir }} onSortChange={onSort} />
       )}
       {current.data && (
-        <Pager page={filters.page} pageSize={filters.pageSize} total={current.data.total}
-          onPage={(page) => setFilters({ ...filters, page })} onPageSize={(pageSize) => setFilters({ ...filters, pageSize, page: 1 })} />
+        // The page shown is the one the rows came from, so the pager never runs ahead of the table while the next page loads.
+        <Pager page={current.data.page} pageSize={current.data.pageSize} total={current.data.total} loading={current.isPlaceholderData}
+          onPage={(page) => update({ page })} onPageSize={(pageSize) => update({ pageSize, page: 1 })} />
       )}
     </>
   );

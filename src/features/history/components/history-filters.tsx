@@ -9,7 +9,8 @@ export interface HistoryFiltersProps {
   depots: string[];
   units: { id: string; name: string; depot: string }[];
   drivers: { id: number; name: string; code: string }[];
-  onChange: (next: HistoryFilters) => void;
+  /** Receives only what changed; the page merges it with the latest filters. */
+  onChange: (patch: Partial<HistoryFilters>) => void;
 }
 
 function Select({ label, value, onChange, options, all }: { label: string; value: string; onChange: (v: string) => void; options: { value: string; label: string }[]; all: string }) {
@@ -30,7 +31,7 @@ function Select({ label, value, onChange, options, all }: { label: string; value
 
 /** Every change returns to page 1: the old page number means nothing under a new filter. */
 export function HistoryFiltersBar({ filters, depots, units, drivers, onChange }: HistoryFiltersProps) {
-  const set = (patch: Partial<HistoryFilters>) => onChange({ ...filters, ...patch, page: 1 });
+  const set = (patch: Partial<HistoryFilters>) => onChange({ ...patch, page: 1 });
   const shownUnits = filters.depot ? units.filter((u) => u.depot === filters.depot) : units;
   return (
     <div role="search" aria-label="History filters" className="mb-4 flex flex-wrap items-end gap-3">

@@ -7,15 +7,20 @@ export interface PagerProps {
   total: number;
   onPage: (page: number) => void;
   onPageSize: (size: number) => void;
+  /** The next page is on its way; the rows shown are still the previous page's. */
+  loading?: boolean;
 }
 
-export function Pager({ page, pageSize, total, onPage, onPageSize }: PagerProps) {
+export function Pager({ page, pageSize, total, onPage, onPageSize, loading = false }: PagerProps) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
   const last = Math.min(total, page * pageSize);
   return (
     <nav aria-label="Pages" className="mt-3 flex flex-wrap items-center justify-between gap-3 text-muted">
-      <p aria-live="polite">{total === 0 ? 'No rows' : `Rows ${first}–${last} of ${total}`}</p>
+      <p aria-live="polite">
+        {total === 0 ? 'No rows' : `Rows ${first}–${last} of ${total}`}
+        {loading && <span className="ml-2 text-sm">(loading…)</span>}
+      </p>
       <div className="flex items-center gap-2">
         <label className="flex items-center gap-2 text-sm">
           Rows per page
@@ -27,13 +32,13 @@ export function Pager({ page, pageSize, total, onPage, onPageSize }: PagerProps)
             ))}
           </select>
         </label>
-        <Button size="sm" onClick={() => onPage(page - 1)} disabled={page <= 1}>
+        <Button size="sm" onClick={() => onPage(page - 1)} disabled={page <= 1 || loading}>
           Previous
         </Button>
         <span className="text-sm">
           Page {page} of {pages}
         </span>
-        <Button size="sm" onClick={() => onPage(page + 1)} disabled={page >= pages}>
+        <Button size="sm" onClick={() => onPage(page + 1)} disabled={page >= pages || loading}>
           Next
         </Button>
       </div>
