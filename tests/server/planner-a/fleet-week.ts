@@ -29,11 +29,11 @@ export async function buildFleetWeek(t: TestService, token: string) {
   await n1.interrupted(day(W47, 0, 6), 38);
   await n1.completed(day(W47, 0, 16));
   await n1.interrupted(day(W47, 1, 6), 20);
-  await n1.completed(day(W47, 1, 16), { spn: 4334, fmi: 18 }); // fault at the first key-on after the interruption
+  await n1.completed(day(W47, 1, 16), { spn: 520201, fmi: 18 }); // fault at the first key-on after the interruption (invented SPNs in the range SAE J1939 leaves to manufacturers, 520192–524287, from memory)
   await n2.completed(day(W47, 2, 6));
   await n2.interrupted(day(W47, 2, 17), 60);
   await s1.interrupted(day(W47, 3, 6), 90);
-  await s1.completed(day(W47, 3, 16), { spn: 3361, fmi: 5 });
+  await s1.completed(day(W47, 3, 16), { spn: 520202, fmi: 5 });
   for (const g of [g1, g2, g3]) await g.end();
 
   const d1 = (await t.api.post('/api/drivers').set(auth).send({ code: 'D-1', name: D1_NAME, depot: 'North' }).expect(201)).body;

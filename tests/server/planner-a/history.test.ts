@@ -73,8 +73,8 @@ describe('history of faults', () => {
     const { body } = await get('/api/history/faults?linked=yes&sort=unitId&dir=asc').expect(200);
     expect(body.total).toBe(2);
     expect(body.rows.map((r: object) => r)).toEqual([
-      expect.objectContaining({ unitId: 'N-1', depot: 'North', driverName: 'Driver Two', spn: 4334, fmi: 18, episodeId: expect.any(Number) }),
-      expect.objectContaining({ unitId: 'S-1', depot: 'South', driverName: null, spn: 3361, fmi: 5 }),
+      expect.objectContaining({ unitId: 'N-1', depot: 'North', driverName: 'Driver Two', spn: 520201, fmi: 18, episodeId: expect.any(Number) }),
+      expect.objectContaining({ unitId: 'S-1', depot: 'South', driverName: null, spn: 520202, fmi: 5 }),
     ]);
     expect((await get('/api/history/faults?linked=no').expect(200)).body.total).toBe(0);
   });
