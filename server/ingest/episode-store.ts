@@ -1,39 +1,19 @@
 // Episodes, faults and the DM1 tracker's state: written in the batch's transaction, read back at start-up.
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Episode, EventPosition, UnitEvent } from '../detection/types';
-import type { FaultActivation } from '../../shared/j1939/dm1-tracker';
 import type { CanFrame } from '../../shared/protocol/messages';
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
-export async function upsertEpisodes(sequelize: Sequelize, t: Transaction, unitId: string, episodes: Episode[]): Promise<Map<string, number>> {
-  const ids = new Map<string, number>();
-  if (!episodes.length) return ids;
-  const rows = episodes.map((e) => ({
+/** Episodes as rows for a jsonb_to_recordset upsert (batch-writes.ts). */
+export function episodeRows(items: { unitId: string; episode: Episode }[]) {
+  return items.map(({ unitId, episode: e }) => ({
     unit_id: unitId, stream: e.keyOff.stream, boot: e.keyOff.boot, seq: e.keyOff.seq, key_off_at: iso(e.keyOff.ts),
     purge_seconds: e.purgeSeconds, loss_threshold_v: e.lossThresholdV, outcome: e.outcome, settled_by: e.settledBy,
     ended_at: iso(e.endedAt), seconds_into_purge: e.secondsIntoPurge, ambient_c: e.ambientC,
     min_ambient_after_c: e.minAmbientAfterC, freeze_exposure: e.freezeExposure, next_key_on_at: iso(e.nextKeyOnAt),
     evidence: e.evidence, final: e.final,
   }));
-  const out = await sequelize.query<{ id: string; stream: number; boot: string; seq: string }>(
-    `INSERT INTO episodes (unit_id, stream, boot, seq, key_off_at, purge_seconds, loss_threshold_v, outcome, settled_by, ended_at,
-        seconds_into_purge, ambient_c, min_ambient_after_c, freeze_exposure, next_key_on_at, evidence, final)
-     SELECT unit_id, stream, boot, seq, key_off_at, purge_seconds, loss_threshold_v, outcome, settled_by, ended_at,
-        seconds_into_purge, ambient_c, min_ambient_after_c, freeze_exposure, next_key_on_at, evidence, final
-     FROM jsonb_to_recordset($1::jsonb) AS x(unit_id text, stream int, boot bigint, seq bigint, key_off_at timestamptz,
-        purge_seconds int, loss_threshold_v float8, outcome text, settled_by text, ended_at timestamptz, seconds_into_purge float8,
-        ambient_c float8, min_ambient_after_c float8, freeze_exposure text, next_key_on_at timestamptz, evidence jsonb, final boolean)
-     ON CONFLICT (unit_id, stream, boot, seq) DO UPDATE SET
-        outcome = EXCLUDED.outcome, settled_by = EXCLUDED.settled_by, ended_at = EXCLUDED.ended_at,
-        seconds_into_purge = EXCLUDED.seconds_into_purge, ambient_c = EXCLUDED.ambient_c,
-        min_ambient_after_c = EXCLUDED.min_ambient_after_c, freeze_exposure = EXCLUDED.freeze_exposure,
-        next_key_on_at = EXCLUDED.next_key_on_at, evidence = EXCLUDED.evidence, final = EXCLUDED.final, updated_at = now()
-     RETURNING id, stream, boot, seq`,
-    { bind: [JSON.stringify(rows)], type: QueryTypes.SELECT, transaction: t },
-  );
-  for (const r of out) ids.set(`${r.stream}/${Number(r.boot)}/${Number(r.seq)}`, Number(r.id));
-  return ids;
 }
 
 interface EpisodeRow {
@@ -106,30 +86,6 @@ export async function loadEvents(sequelize: Sequelize, unitId: string, opts: { f
     transaction: t,
   });
   return rows.map(eventFromRow);
-}
-
-export async function insertFaults(sequelize: Sequelize, t: Transaction, unitId: string, faults: FaultActivation[]) {
-  if (!faults.length) return;
-  const rows = faults.map((f) => ({
-    unit_id: unitId, at: iso(f.at), source_address: f.sourceAddress, spn: f.spn, fmi: f.fmi,
-    conversion_method: f.conversionMethod, occurrence_count: f.occurrenceCount, lamps: f.lamps,
-  }));
-  await sequelize.query(
-    `INSERT INTO faults (unit_id, at, source_address, spn, fmi, conversion_method, occurrence_count, lamps)
-     SELECT * FROM jsonb_to_recordset($1::jsonb) AS x(unit_id text, at timestamptz, source_address int, spn int, fmi int,
-       conversion_method int, occurrence_count int, lamps jsonb)
-     ON CONFLICT DO NOTHING`,
-    { bind: [JSON.stringify(rows)], transaction: t },
-  );
-}
-
-export async function saveDm1State(sequelize: Sequelize, t: Transaction, unitId: string, snapshot: unknown, last: EventPosition) {
-  await sequelize.query(
-    `INSERT INTO unit_dm1_state (unit_id, snapshot, last_stream, last_boot, last_seq) VALUES ($1, $2::jsonb, $3, $4, $5)
-     ON CONFLICT (unit_id) DO UPDATE SET snapshot = EXCLUDED.snapshot, last_stream = EXCLUDED.last_stream,
-       last_boot = EXCLUDED.last_boot, last_seq = EXCLUDED.last_seq`,
-    { bind: [unitId, JSON.stringify(snapshot), last.stream, last.boot, last.seq], transaction: t },
-  );
 }
 
 export async function loadDm1State(sequelize: Sequelize, unitId: string) {

@@ -6,13 +6,21 @@ import { GatewayDirectory } from './gateway-directory';
 import { createAccept, type IngestCounters } from './accept';
 import type { IngestItem, MessageItem, QuarantineItem } from './items';
 import { insertMessages, insertQuarantine, messageKey } from './store';
-import { judgeUnitInBatch } from './unit-judge';
-import { ingestCan, linkSpan, relinkFaults } from './unit-faults';
+import { judgeUnitInBatch, type JudgeResult } from './unit-judge';
+import { judgeCan, linkSpan, relinkFaults, type CanOutcome } from './unit-faults';
+import { emptyWrites, writeBatch, type BatchWrites } from './batch-writes';
 import type { UnitMemory } from './unit-memory';
 import { createFleetEvents, type EpisodeChange, type UnitChange } from './fleet-events';
 import { UnitBook } from './unit-book';
 import { positionKey } from '../detection/positions';
 import type { StatusMessage } from '../../shared/protocol/messages';
+
+interface Judged {
+  unitId: string;
+  memory: UnitMemory;
+  r: JudgeResult;
+  faults: CanOutcome;
+}
 
 export interface IngestOptions {
   sequelize: Sequelize;
@@ -76,33 +84,45 @@ export function createIngest(opts: IngestOptions) {
       // Sorted, so that workers taking units' locks in one batch never deadlock one another.
       const units = [...new Set([...byUnit.keys(), ...ticks])].sort();
       const next = new Map<string, UnitMemory>();
-      const episodeChanges: EpisodeChange[] = [];
+      const failed: string[] = [];
+      const writes = emptyWrites();
+      const judged: Judged[] = [];
       for (const unitId of units) {
         let mem = await book.get(unitId, t);
         if (!mem) continue;
-        // Counted before the savepoint: even a judgement that fails below marks the unit as changed, so
-        // no worker keeps trusting a memory that lacks the messages this batch stores.
+        // Counted even if the judgement below fails: no worker may keep trusting a memory that lacks
+        // the messages this batch stores.
         const version = opts.shared ? await claimUnit(t, unitId) : null;
         try {
-          await sequelize.query('SAVEPOINT unit_judge', { transaction: t });
           // Another worker judged this unit since our memory was made: start again from the database.
           if (version !== null && version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
-          const r = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
-          if (version !== null) r.memory.version = version;
-          await sequelize.query('RELEASE SAVEPOINT unit_judge', { transaction: t });
-          next.set(unitId, r.memory);
-          episodeChanges.push(...r.changes);
+          const j = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
+          if (version !== null) j.memory.version = version;
+          collect(writes, j);
+          judged.push(j);
         } catch (err) {
-          // The raw messages are still committed; the unit is judged again with its next message.
-          await sequelize.query('ROLLBACK TO SAVEPOINT unit_judge', { transaction: t });
+          // Judging only reads, so nothing of this unit is half-written; its raw messages still commit,
+          // and its memory is rebuilt from the database next time.
+          failed.push(unitId);
           judgeErrors.count++;
           log.error({ err, unitId }, 'judging a unit failed; its messages are stored');
         }
       }
-      return { fresh: fresh.size, next, episodeChanges };
+      await writeBatch(sequelize, t, writes);
+      const episodeChanges: EpisodeChange[] = [];
+      for (const j of judged) {
+        await relinkFor(t, j);
+        next.set(j.unitId, j.memory);
+        for (const c of j.r.changed) episodeChanges.push({ unitId: j.unitId, id: c.id, episode: c.episode, before: j.r.before.get(positionKey(c.episode.keyOff)) ?? null });
+      }
+      return { fresh: fresh.size, next, episodeChanges, failed };
     });
     counters.accepted += outcome.fresh;
     counters.duplicates += messages.length - outcome.fresh;
+    for (const unitId of outcome.failed) {
+      book.forget(unitId);
+      void book.get(unitId).catch((err) => log.warn({ err, unitId }, 'could not rebuild a unit'));
+    }
     const unitChanges: UnitChange[] = [];
     for (const [unitId, mem] of outcome.next) {
       const previous = book.peek(unitId);
@@ -123,25 +143,33 @@ export function createIngest(opts: IngestOptions) {
     return Number(row.judged_version);
   }
 
-  async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]) {
+  /** A unit's judgement in this batch: reads only; its writes are collected for the batch. */
+  async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]): Promise<Judged> {
     const wall = wallNow();
     const r = await judgeUnitInBatch(sequelize, t, mem, items.map((i) => ({ event: i.event, receivedAt: i.receivedAt })), (m) => book.clock(m, wall));
     const can = items.filter((i) => i.frames).map((i) => ({ position: i.event, frames: i.frames! }));
-    const faults = await ingestCan(sequelize, t, r.memory, can);
-    // Links can change where a fault arrived or where an interrupted episode changed (before or after).
+    const faults = await judgeCan(sequelize, t, r.memory, can);
+    return { unitId: mem.profile.unitId, memory: r.memory, r, faults };
+  }
+
+  function collect(w: BatchWrites, j: Judged) {
+    for (const entry of j.r.changed) w.episodes.push({ unitId: j.unitId, entry });
+    w.deleted.push(...j.r.deleted);
+    if (j.faults.recomputed) w.faultResets.push(j.unitId);
+    for (const activation of j.faults.activations) w.faults.push({ unitId: j.unitId, activation });
+    if (j.faults.dm1) w.dm1.push({ unitId: j.unitId, ...j.faults.dm1 });
+  }
+
+  /** Links can change where a fault arrived or where an interrupted episode changed (before or after). */
+  async function relinkFor(t: Transaction, j: Judged) {
     const spans: [number, number][] = [];
-    if (faults.recomputed) spans.push([0, 8.64e15]);
-    for (const f of faults.activations) spans.push([f.at, f.at]);
-    for (const c of r.changed) {
-      for (const s of [linkSpan(c.episode), linkSpan(r.before.get(positionKey(c.episode.keyOff)))]) if (s) spans.push(s);
+    if (j.faults.recomputed) spans.push([0, Date.UTC(9999, 0, 1)]); // every fault of the unit (a date PostgreSQL can hold)
+    for (const f of j.faults.activations) spans.push([f.at, f.at]);
+    for (const c of j.r.changed) {
+      for (const s of [linkSpan(c.episode), linkSpan(j.r.before.get(positionKey(c.episode.keyOff)))]) if (s) spans.push(s);
     }
-    if (spans.length) {
-      const from = Math.min(...spans.map((s) => s[0]));
-      const to = Math.max(...spans.map((s) => s[1]));
-      await relinkFaults(sequelize, t, r.memory, from, to);
-    }
-    const changes: EpisodeChange[] = r.changed.map((c) => ({ unitId: mem.profile.unitId, id: c.id, episode: c.episode, before: r.before.get(positionKey(c.episode.keyOff)) ?? null }));
-    return { memory: r.memory, changes };
+    if (!spans.length) return;
+    await relinkFaults(sequelize, t, j.memory, Math.min(...spans.map((s) => s[0])), Math.max(...spans.map((s) => s[1])));
   }
 
   const accept = createAccept({

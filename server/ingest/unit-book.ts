@@ -59,6 +59,11 @@ export class UnitBook {
     return this.units.get(unitId);
   }
 
+  /** Drops a unit's memory: it is rebuilt from the database when next needed. */
+  forget(unitId: string) {
+    this.units.delete(unitId);
+  }
+
   set(unitId: string, m: UnitMemory) {
     this.units.set(unitId, m);
   }

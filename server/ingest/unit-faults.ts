@@ -7,7 +7,7 @@ import { linkFaults } from '../detection/link-faults';
 import { FAULT_LINK_WINDOW_MS } from '../../shared/protocol/limits';
 import type { Episode, EventPosition } from '../detection/types';
 import type { CanFrame } from '../../shared/protocol/messages';
-import { episodeFromRow, insertFaults, loadEvents, saveDm1State } from './episode-store';
+import { episodeFromRow, loadEvents } from './episode-store';
 import type { UnitMemory } from './unit-memory';
 
 export interface CanInput {
@@ -17,17 +17,24 @@ export interface CanInput {
 
 const toTracker = (frames: CanFrame[]): TrackerFrame[] => frames.map((f) => ({ t: Date.parse(f.t), id: f.id, data: f.data }));
 
-/** Feeds new CAN messages to the tracker; one that arrives before the last fed one makes the unit's faults be recomputed from its whole CAN history. */
-export async function ingestCan(sequelize: Sequelize, t: Transaction, m: UnitMemory, can: CanInput[]): Promise<{ activations: FaultActivation[]; recomputed: boolean }> {
-  if (!can.length) return { activations: [], recomputed: false };
+export interface CanOutcome {
+  activations: FaultActivation[];
+  /** The unit's faults were recomputed from its whole CAN history: replace them all. */
+  recomputed: boolean;
+  /** The tracker's state to save, when CAN messages came in. */
+  dm1: { snapshot: unknown; last: EventPosition } | null;
+}
+
+/** Feeds new CAN messages to the tracker; one that arrives before the last fed one makes the unit's faults be recomputed from its whole CAN history. Reads only. */
+export async function judgeCan(sequelize: Sequelize, t: Transaction, m: UnitMemory, can: CanInput[]): Promise<CanOutcome> {
+  if (!can.length) return { activations: [], recomputed: false, dm1: null };
   const unitId = m.profile.unitId;
   const ordered = can.slice().sort((a, b) => comparePositions(a.position, b.position));
   const inOrder = !m.lastCan || comparePositions(ordered[0].position, m.lastCan) > 0;
-  let activations: FaultActivation[] = [];
+  const activations: FaultActivation[] = [];
   if (inOrder) {
     for (const c of ordered) activations.push(...m.dm1.pushAll(toTracker(c.frames)).activations);
     m.lastCan = ordered[ordered.length - 1].position;
-    await insertFaults(sequelize, t, unitId, activations);
   } else {
     const all = await loadEvents(sequelize, unitId, { kinds: ['can'] }, t);
     const tracker = new Dm1Tracker();
@@ -35,11 +42,8 @@ export async function ingestCan(sequelize: Sequelize, t: Transaction, m: UnitMem
     m.dm1 = tracker;
     const last = all[all.length - 1].event;
     m.lastCan = { stream: last.stream, boot: last.boot, seq: last.seq };
-    await sequelize.query(`DELETE FROM faults WHERE unit_id = $1`, { bind: [unitId], transaction: t });
-    await insertFaults(sequelize, t, unitId, activations);
   }
-  await saveDm1State(sequelize, t, unitId, m.dm1.snapshot(), m.lastCan!);
-  return { activations, recomputed: !inOrder };
+  return { activations, recomputed: !inOrder, dm1: { snapshot: m.dm1.snapshot(), last: m.lastCan! } };
 }
 
 /** Relinks the unit's faults whose time lies in [from, to] to the interrupted episodes that explain them. */

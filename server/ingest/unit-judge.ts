@@ -1,17 +1,20 @@
-// Re-judges one unit inside the batch's transaction: merges new events into its window, writes the
-// episodes that changed, and returns the unit's next memory (swapped in after commit).
+// Re-judges one unit inside the batch's transaction: merges new events into its window and returns the
+// episodes that changed (written in bulk for the whole batch by batch-writes.ts) and the unit's next
+// memory (swapped in after commit). It only reads the database, so a unit that fails leaves no trace.
 import type { Sequelize, Transaction } from 'sequelize';
 import { judgeUnit } from '../detection/judge-unit';
 import { judgingWindow } from '../detection/window';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
 import { cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
-import { deleteEpisodes, loadBootEvents, loadEpisodes, upsertEpisodes } from './episode-store';
+import { loadBootEvents, loadEpisodes } from './episode-store';
 
 export interface JudgeResult {
   memory: UnitMemory;
-  /** Episodes inserted or changed, with their ids. */
+  /** Episodes inserted or changed; a new one has id 0 until the batch's upsert gives it one. */
   changed: StoredEpisode[];
+  /** Stored episodes that are no longer key-offs. */
+  deleted: number[];
   /** Changed episodes' previous versions (for fault relinking and alerts). */
   before: Map<string, Episode>;
 }
@@ -40,19 +43,17 @@ export async function judgeUnitInBatch(
   const inWindow = fresh.filter((f) => !start || comparePositions(f.event, start) >= 0).map((f) => f.event);
   const before = fresh.filter((f) => start && comparePositions(f.event, start) < 0).map((f) => f.event);
   const changed: StoredEpisode[] = [];
+  const deleted: number[] = [];
   const previousVersions = new Map<string, Episode>();
 
-  const write = async (episodes: Episode[], stored: Map<string, StoredEpisode>) => {
-    const diff = episodes.filter((e) => {
-      const s = stored.get(positionKey(e.keyOff));
-      return !s || !same(s.episode, e);
-    });
-    const ids = await upsertEpisodes(sequelize, t, unitId, diff);
-    for (const e of diff) {
+  const write = (episodes: Episode[], stored: Map<string, StoredEpisode>) => {
+    for (const e of episodes) {
       const key = positionKey(e.keyOff);
       const old = stored.get(key);
+      if (old && same(old.episode, e)) continue;
       if (old) previousVersions.set(key, old.episode);
-      const entry = { id: ids.get(key)!, episode: e };
+      // The same object sits in the memory and in `changed`: the batch's upsert fills in a new id.
+      const entry = { id: old?.id ?? 0, episode: e };
       stored.set(key, entry);
       changed.push(entry);
     }
@@ -70,22 +71,22 @@ export async function judgeUnitInBatch(
   const returned = new Set(judgement.episodes.map((e) => positionKey(e.keyOff)));
   // A stored episode in the window whose key-off is no longer one (a late message filled a gap before it).
   const gone = [...m.episodes.values()].filter((s) => !returned.has(positionKey(s.episode.keyOff)));
-  if (gone.length) {
-    await deleteEpisodes(sequelize, t, gone.map((g) => g.id));
-    for (const g of gone) m.episodes.delete(positionKey(g.episode.keyOff));
+  for (const g of gone) {
+    if (g.id) deleted.push(g.id);
+    m.episodes.delete(positionKey(g.episode.keyOff));
   }
-  await write(judgement.episodes, m.episodes);
+  write(judgement.episodes, m.episodes);
   m.state = judgement.state;
 
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
-  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write);
+  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write, deleted);
 
   const win = judgingWindow(input);
   m.windowStart = win.start;
   m.context = win.context;
   m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];
   for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(key);
-  return { memory: m, changed, before: previousVersions };
+  return { memory: m, changed, deleted, before: previousVersions };
 }
 
 async function judgeOldStretch(
@@ -94,7 +95,8 @@ async function judgeOldStretch(
   m: UnitMemory,
   late: UnitEvent[],
   now: number,
-  write: (episodes: Episode[], stored: Map<string, StoredEpisode>) => Promise<void>,
+  write: (episodes: Episode[], stored: Map<string, StoredEpisode>) => void,
+  deleted: number[],
 ) {
   const unitId = m.profile.unitId;
   const boots = new Map<string, { stream: number; boot: number }>();
@@ -115,7 +117,7 @@ async function judgeOldStretch(
     // As in the window: a stored key-off of this stretch that is no longer one goes.
     const kept = new Set(outside.map((e) => positionKey(e.keyOff)));
     const gone = [...stored.values()].filter((s) => before(s.episode.keyOff) && !kept.has(positionKey(s.episode.keyOff)));
-    await deleteEpisodes(sequelize, t, gone.map((g) => g.id));
-    await write(outside, stored);
+    deleted.push(...gone.map((g) => g.id));
+    write(outside, stored);
   }
 }

@@ -1,0 +1,93 @@
+// `npm run bench [-- --quick] [--runs N]`: the product against the bare pipeline on this machine, with its
+// own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { startLocalPostgres } from './lib/local-postgres';
+import { bare, historyQuery, productLive, productMax, startProduct, weekendReplay, type LiveFigures, type ThroughputFigures } from './bench/scenarios';
+
+const args = process.argv.slice(2);
+const quick = args.includes('--quick');
+const runsArg = args.indexOf('--runs');
+const runs = runsArg >= 0 ? Number(args[runsArg + 1]) : quick ? 1 : 3;
+const P = quick
+  ? { gateways: 100, durationS: 6, liveUnits: 1000, liveS: 20, events: 40, weekendUnits: 40, historyTries: 20 }
+  : { gateways: 200, durationS: 20, liveUnits: 10_000, liveS: 45, events: 200, weekendUnits: 200, historyTries: 100 };
+const say = (s: string) => process.stderr.write(`${s}\n`);
+
+const stats = (xs: (number | null)[]) => {
+  const v = xs.filter((x): x is number => x !== null).sort((a, b) => a - b);
+  return v.length ? { median: v[Math.floor(v.length / 2)], min: v[0], max: v[v.length - 1] } : null;
+};
+const fmt = (s: ReturnType<typeof stats>, unit = '', digits = 0) =>
+  s ? `${s.median.toFixed(digits)}${unit} (${s.min.toFixed(digits)}–${s.max.toFixed(digits)})` : 'n/a';
+
+async function main() {
+  const dir = mkdtempSync(join(tmpdir(), 'afterwatch-bench-pg-'));
+  say(`afterwatch bench: ${quick ? 'quick' : 'full'}, ${runs} run(s)`);
+  const pg = await startLocalPostgres({ dataDir: dir, database: 'postgres' });
+  const adminUrl = pg.url;
+  const out: Record<string, unknown> = { at: new Date().toISOString(), quick, runs, params: P };
+  try {
+    const bareRuns: ThroughputFigures[] = [];
+    const prodRuns: ThroughputFigures[] = [];
+    for (let r = 0; r < runs; r++) {
+      say(`run ${r + 1}: bare pipeline, ${P.gateways} gateways, ${P.durationS} s at full speed`);
+      bareRuns.push(await bare(adminUrl, r, P.gateways, P.durationS));
+      say(`run ${r + 1}: product, ${P.gateways} gateways, ${P.durationS} s at full speed`);
+      prodRuns.push(await productMax(adminUrl, r, P.gateways, P.durationS));
+    }
+    const bareRate = stats(bareRuns.map((b) => b.msgsPerS))!;
+    say(`live fleet: ${P.liveUnits} units`);
+    const live = await startProduct(adminUrl, 'bench_live', P.liveUnits);
+    const normal: LiveFigures[] = [];
+    const half: LiveFigures[] = [];
+    for (let r = 0; r < runs; r++) {
+      say(`run ${r + 1}: ${P.liveUnits} units, one sample every 5 s each, board watching`);
+      normal.push(await productLive(live, { rate: P.liveUnits / 5, durationS: P.liveS, eventGateways: P.events, boot: 2 * r + 1 }));
+      say(`run ${r + 1}: at half the bare ceiling (${Math.round(bareRate.median / 2)} messages/s)`);
+      half.push(await productLive(live, { rate: bareRate.median / 2, durationS: P.liveS, eventGateways: P.events, boot: 2 * r + 2 }));
+    }
+    say('history: 90 days of purges for every unit, a depot\'s history page');
+    const history = await historyQuery(live, P.historyTries);
+    await live.stop();
+    say(`weekend replay: ${P.weekendUnits} units`);
+    const weekend = await weekendReplay(adminUrl, P.weekendUnits);
+    Object.assign(out, { bareRuns, prodRuns, normal, half, history, weekend: { units: weekend.units, wallS: weekend.wallS } });
+
+    const prodRate = stats(prodRuns.map((p) => p.msgsPerS))!;
+    const lines = [
+      '',
+      `Afterwatch benchmark (${quick ? 'quick' : 'full'}; median of ${runs} run(s), min–max in brackets)`,
+      '',
+      `bare pipeline    sustained ${fmt(bareRate, ' msg/s')}, publish→commit p50 ${fmt(stats(bareRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(bareRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
+      `                 CPU s: pipeline ${fmt(stats(bareRuns.map((b) => b.cpu.pipeline)), '', 1)}, postgres ${fmt(stats(bareRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(bareRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(bareRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
+      `product          sustained ${fmt(prodRate, ' msg/s')}, publish→commit p50 ${fmt(stats(prodRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(prodRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
+      `                 CPU s: service ${fmt(stats(prodRuns.map((b) => b.cpu.service)), '', 1)}, postgres ${fmt(stats(prodRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(prodRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(prodRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
+      `ratio            product / bare = ${(prodRate.median / bareRate.median).toFixed(2)} (target ≥ 0.75)`,
+      '',
+      ...([['live', normal], ['half bare', half]] as const).flatMap(([name, xs]) => [
+        `${name.padEnd(16)} ${P.liveUnits} units at ${Math.round(xs[0].rate)} msg/s: committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,
+        `                 publish→board key-off p50 ${fmt(stats(xs.map((x) => x.keyOffBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.keyOffBoardP99Ms)), ' ms')}; supply loss p50 ${fmt(stats(xs.map((x) => x.supplyLossBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.supplyLossBoardP99Ms)), ' ms')}; events not seen ${xs.reduce((s, x) => s + x.eventsMissing, 0)}`,
+        `                 service RSS ${fmt(stats(xs.map((x) => x.serviceRssMb)), ' MB')}, CPU s: service ${fmt(stats(xs.map((x) => x.cpu.service)), '', 1)}, postgres ${fmt(stats(xs.map((x) => x.cpu.postgres)), '', 1)}, publishers ${fmt(stats(xs.map((x) => x.cpu.publishers)), '', 1)}`,
+      ]),
+      '',
+      `history          a depot's 90-day page over ${history.episodes} episodes: p50 ${history.p50Ms?.toFixed(1)} ms, p95 ${history.p95Ms?.toFixed(1)} ms (target < 200 ms)`,
+      `weekend replay   ${weekend.units} units, Fri 15:00 to Mon 08:00: ${weekend.wallS.toFixed(1)} s wall time (target < 60 s)`,
+      '',
+    ];
+    process.stdout.write(lines.join('\n'));
+    mkdirSync('bench-results', { recursive: true });
+    const file = join('bench-results', `bench-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+    writeFileSync(file, JSON.stringify(out, null, 2));
+    process.stdout.write(`results written to ${file}\n`);
+  } finally {
+    await pg.stop();
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+main().catch((err) => {
+  process.stderr.write(`bench failed: ${err instanceof Error ? err.stack : String(err)}\n`);
+  process.exit(1);
+});

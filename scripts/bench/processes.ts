@@ -1,0 +1,95 @@
+// Child processes of the benchmark and what they cost: CPU seconds and peak resident memory from /proc.
+import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+
+const TICK = 100; // USER_HZ on Linux
+const tsx = join('node_modules', 'tsx', 'dist', 'cli.mjs');
+
+export function cpuSeconds(pid: number): number {
+  try {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+    return (Number(fields[11]) + Number(fields[12])) / TICK; // utime + stime
+  } catch {
+    return 0;
+  }
+}
+
+export function peakRssMb(pid: number): number {
+  try {
+    const m = /VmHWM:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+    return m ? Number(m[1]) / 1024 : 0;
+  } catch {
+    return 0;
+  }
+}
+
+/** Every PostgreSQL process of the benchmark's cluster (they run as the cluster's system user). */
+export function postgresPids(user: string): number[] {
+  try {
+    return execFileSync('pgrep', ['-u', user, 'postgres']).toString().trim().split('\n').filter(Boolean).map(Number);
+  } catch {
+    return [];
+  }
+}
+
+export const sumCpu = (pids: number[]) => pids.reduce((s, p) => s + cpuSeconds(p), 0);
+
+/** A process and its descendants (tsx runs the script in a child node process). */
+export function processTree(pid: number): number[] {
+  const out = [pid];
+  for (let i = 0; i < out.length; i++) {
+    try {
+      out.push(...execFileSync('pgrep', ['-P', String(out[i])]).toString().trim().split('\n').filter(Boolean).map(Number));
+    } catch {
+      /* no children */
+    }
+  }
+  return out;
+}
+
+export const treeCpu = (pid: number) => sumCpu(processTree(pid));
+export const treePeakRssMb = (pid: number) => Math.max(...processTree(pid).map(peakRssMb));
+
+export interface Child {
+  proc: ChildProcess;
+  output(): string;
+  exited: Promise<number | null>;
+  stop(): Promise<void>;
+}
+
+export function spawnTs(script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child {
+  const proc = spawn(process.execPath, [tsx, script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  let out = '';
+  let partial = '';
+  proc.stdout!.on('data', (d: Buffer) => {
+    out = (out + d).slice(-200_000);
+    partial += d.toString();
+    const lines = partial.split('\n');
+    partial = lines.pop()!;
+    for (const l of lines) onLine?.(l);
+  });
+  proc.stderr!.on('data', (d: Buffer) => (out = (out + d).slice(-200_000)));
+  const exited = new Promise<number | null>((res) => proc.once('exit', (code) => res(code)));
+  return {
+    proc,
+    output: () => out,
+    exited,
+    async stop() {
+      if (proc.exitCode !== null) return;
+      proc.kill('SIGTERM');
+      const t = setTimeout(() => proc.kill('SIGKILL'), 10_000);
+      await exited;
+      clearTimeout(t);
+    },
+  };
+}
+
+export async function waitFor(check: () => Promise<boolean>, timeoutMs: number, what: string) {
+  const end = Date.now() + timeoutMs;
+  while (Date.now() < end) {
+    if (await check().catch(() => false)) return;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`timed out waiting for ${what}`);
+}
