@@ -24,6 +24,21 @@ export function peakRssMb(pid: number): number {
   }
 }
 
+/** CPU of the whole cluster: the postmaster with its reaped children (cutime, cstime) plus the live backends. */
+export function postgresCpu(user: string): number {
+  let total = 0;
+  for (const pid of postgresPids(user)) {
+    try {
+      const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+      const isPostmaster = Number(f[1]) !== 0 && !postgresPids(user).includes(Number(f[1]));
+      total += (Number(f[11]) + Number(f[12]) + (isPostmaster ? Number(f[13]) + Number(f[14]) : 0)) / TICK;
+    } catch {
+      /* gone meanwhile */
+    }
+  }
+  return total;
+}
+
 /** Every PostgreSQL process of the benchmark's cluster (they run as the cluster's system user). */
 export function postgresPids(user: string): number[] {
   try {

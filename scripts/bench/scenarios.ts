@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, PG_SYSTEM_USER } from '../lib/local-postgres';
-import { postgresPids, spawnTs, sumCpu, treeCpu, treePeakRssMb, waitFor, type Child } from './processes';
+import { postgresCpu, spawnTs, treeCpu, treePeakRssMb, waitFor, type Child } from './processes';
 import { createDatabase, provisionFleet, type BenchGateway } from './fleet';
 import { eventLatencies, observe, quantile } from './observer';
 import { fillHistory } from './history-data';
@@ -43,12 +43,12 @@ export async function bare(adminUrl: string, run: number, gateways: number, dura
   const child = spawnTs('scripts/bench/bare.ts', [db, String(port)], {}, (l) => (ready ||= l === 'ready'));
   await waitFor(async () => ready, 20_000, 'the bare pipeline');
   const gws = Array.from({ length: gateways }, (_, i) => ({ id: `bare-gw-${i}`, secret: 'x', unitId: '' }));
-  const pg0 = sumCpu(postgresPids(PG_SYSTEM_USER));
+  const pg0 = postgresCpu(PG_SYSTEM_USER);
   const c0 = cpuOf(child);
   const { result } = await publish(`mqtt://127.0.0.1:${port}`, gws, { mode: 'max', window: 20, durationS });
   const figures = {
     msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed,
-    cpu: { pipeline: cpuOf(child) - c0, postgres: sumCpu(postgresPids(PG_SYSTEM_USER)) - pg0, publishers: result.cpuS }, rssMb: rssOf(child),
+    cpu: { pipeline: cpuOf(child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS }, rssMb: rssOf(child),
   };
   await child.stop();
   return figures;
@@ -82,12 +82,12 @@ export async function startProduct(adminUrl: string, name: string, units: number
 
 export async function productMax(adminUrl: string, run: number, gateways: number, durationS: number): Promise<ThroughputFigures> {
   const s = await startProduct(adminUrl, `bench_prod_${run}`, gateways);
-  const pg0 = sumCpu(postgresPids(PG_SYSTEM_USER));
+  const pg0 = postgresCpu(PG_SYSTEM_USER);
   const c0 = cpuOf(s.child);
   const { result } = await publish(s.mqttUrl, s.gateways, { mode: 'max', window: 20, durationS });
   const figures = {
     msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed,
-    cpu: { service: cpuOf(s.child) - c0, postgres: sumCpu(postgresPids(PG_SYSTEM_USER)) - pg0, publishers: result.cpuS }, rssMb: rssOf(s.child),
+    cpu: { service: cpuOf(s.child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS }, rssMb: rssOf(s.child),
   };
   await s.stop();
   return figures;
@@ -102,7 +102,7 @@ export interface LiveFigures {
 /** The fleet live at a rate, the board watching: publish -> committed and publish -> board state change. */
 export async function productLive(s: ServiceUnderTest, opts: { rate: number; durationS: number; eventGateways: number; boot: number }): Promise<LiveFigures> {
   const board = await observe(s.url, s.token);
-  const pg0 = sumCpu(postgresPids(PG_SYSTEM_USER));
+  const pg0 = postgresCpu(PG_SYSTEM_USER);
   const c0 = cpuOf(s.child);
   const offset = (opts.boot - 1) * opts.eventGateways;
   const gws = [...s.gateways.slice(offset), ...s.gateways.slice(0, offset)];
@@ -116,7 +116,7 @@ export async function productLive(s: ServiceUnderTest, opts: { rate: number; dur
     keyOffBoardP50Ms: quantile(lat.keyOff, 0.5), keyOffBoardP99Ms: quantile(lat.keyOff, 0.99),
     supplyLossBoardP50Ms: quantile(lat.supplyLost, 0.5), supplyLossBoardP99Ms: quantile(lat.supplyLost, 0.99),
     eventsMissing: lat.missing, serviceRssMb: rssOf(s.child),
-    cpu: { service: cpuOf(s.child) - c0, postgres: sumCpu(postgresPids(PG_SYSTEM_USER)) - pg0, publishers: result.cpuS },
+    cpu: { service: cpuOf(s.child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS },
   };
 }
 

@@ -11,8 +11,9 @@ export interface JudgedUnit {
 }
 
 /** The shared first half of judging: validate, order and de-duplicate, find and settle the episodes. */
-export function judgeInternals(input: JudgeInput): JudgedUnit {
-  assertJudgeInput(input);
+export function judgeInternals(input: JudgeInput, options: { validate?: boolean } = {}): JudgedUnit {
+  // The ingest shell builds its input from messages the shared schemas already checked, and may skip this.
+  if (options.validate !== false) assertJudgeInput(input);
   const ordered = orderEvents(input.events);
   const judged = judgeEpisodes(ordered, input);
   fillFreezeExposure(judged, ordered);
@@ -29,7 +30,11 @@ export function initialFold(input: JudgeInput): Fold {
  * always gives the same judgement. Events may come in any order and with duplicates.
  */
 export function judgeUnit(input: JudgeInput): Judgement {
-  const { ordered, judged } = judgeInternals(input);
+  return judgementOf(input, judgeInternals(input));
+}
+
+/** The second half: the unit's state at `now` from the judged episodes. */
+export function judgementOf(input: JudgeInput, { ordered, judged }: JudgedUnit): Judgement {
   const fold = foldEvents(ordered, judged, input.profile.lossThresholdV, initialFold(input), 0, ordered.length, input.now);
   const lastEventTs = ordered.length > 0 ? ordered[ordered.length - 1].ts : null;
   return { episodes: judged.map((j) => j.episode), state: finishState(fold, lastEventTs, input.now) };

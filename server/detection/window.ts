@@ -1,6 +1,6 @@
-import type { EventPosition, JudgeContext, JudgeInput } from './types';
+import type { EventPosition, JudgeContext, JudgeInput, Judgement } from './types';
 import { positionOf } from './positions';
-import { initialFold, judgeInternals } from './judge-unit';
+import { initialFold, judgeInternals, judgementOf, type JudgedUnit } from './judge-unit';
 import { closeFold, foldEvents } from './unit-state';
 
 /**
@@ -38,9 +38,21 @@ export interface JudgingWindow {
  * database, judge them with no context, and upsert only the returned episodes that lie before `start`.
  */
 export function judgingWindow(input: JudgeInput, options: { holdLimitMs?: number } = {}): JudgingWindow {
-  const holdLimitMs = options.holdLimitMs ?? DEFAULT_HOLD_LIMIT_MS;
+  return windowOf(input, judgeInternals(input), options.holdLimitMs);
+}
+
+/**
+ * judgeUnit and judgingWindow of the same input in one pass over it (what the ingest shell does after
+ * every batch). `validate: false` skips the input check, for input built from already-checked messages.
+ */
+export function judgeWithWindow(input: JudgeInput, options: { holdLimitMs?: number; validate?: boolean } = {}): { judgement: Judgement; window: JudgingWindow } {
+  const internals = judgeInternals(input, { validate: options.validate });
+  return { judgement: judgementOf(input, internals), window: windowOf(input, internals, options.holdLimitMs) };
+}
+
+function windowOf(input: JudgeInput, { ordered, judged }: JudgedUnit, holdLimit?: number): JudgingWindow {
+  const holdLimitMs = holdLimit ?? DEFAULT_HOLD_LIMIT_MS;
   if (!Number.isFinite(holdLimitMs) || holdLimitMs < 0) throw new RangeError(`holdLimitMs must be a finite ms >= 0, got ${holdLimitMs}`);
-  const { ordered, judged } = judgeInternals(input);
   const carried: JudgeContext = input.context ?? { state: null, lastAmbient: null };
   if (ordered.length === 0) return { start: null, context: carried };
 

@@ -47,8 +47,8 @@ export function createAccept(deps: AcceptDeps) {
       return;
     }
     if (payload.length > MAX_PAYLOAD_BYTES) return quarantine(gatewayId, topic, `payload of ${payload.length} bytes is over ${MAX_PAYLOAD_BYTES}`, payload);
-    await deps.batch.room(deps.maxBacklog);
-    const gw = await deps.directory.get(gatewayId);
+    if (deps.batch.backlog >= deps.maxBacklog) await deps.batch.room(deps.maxBacklog);
+    const gw = deps.directory.peek(gatewayId) ?? (await deps.directory.get(gatewayId));
     if (!gw) return quarantine(gatewayId, topic, 'gateway is not provisioned for any unit', payload);
     if (gw.revoked) return quarantine(gatewayId, topic, 'gateway has been revoked', payload);
     return deps.batch.add({

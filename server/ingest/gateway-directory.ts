@@ -16,6 +16,11 @@ export class GatewayDirectory {
     for (const g of await Gateway.findAll()) this.byId.set(g.gatewayId, this.entry(g));
   }
 
+  /** The cached entry, without a database round trip (the hot path); undefined when not cached. */
+  peek(gatewayId: string): GatewayEntry | undefined {
+    return this.byId.get(gatewayId) ?? undefined;
+  }
+
   async get(gatewayId: string): Promise<GatewayEntry | null> {
     if (this.byId.has(gatewayId)) return this.byId.get(gatewayId)!;
     const g = await Gateway.findByPk(gatewayId);

@@ -2,34 +2,29 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { MessageItem, QuarantineItem } from './items';
 
-const key = (gatewayId: string, boot: number, seq: number) => `${gatewayId}\0${boot}\0${seq}`;
+// '|' cannot occur in a gateway id (protocol pattern) nor in a number.
+const key = (gatewayId: string, boot: number, seq: number) => `${gatewayId}|${boot}|${seq}`;
 export const messageKey = (m: { gatewayId: string; boot: number; seq: number }) => key(m.gatewayId, m.boot, m.seq);
 
-/** Inserts the batch's messages; returns the keys of those that were new (the rest were duplicates). */
+/**
+ * Inserts the batch's messages; returns the keys of those that were new (the rest were duplicates).
+ * The rows go as one JSON document that PostgreSQL unpacks (jsonb_to_recordset): far less work in
+ * Node than binding arrays, whose elements pg escapes one by one.
+ */
 export async function insertMessages(sequelize: Sequelize, t: Transaction, items: MessageItem[]): Promise<Set<string>> {
   if (items.length === 0) return new Set();
-  const rows = await sequelize.query<{ gateway_id: string; boot: string; seq: string }>(
+  const rows = items.map((m) => ({ g: m.gatewayId, b: m.boot, s: m.seq, u: m.unitId, st: m.stream, k: m.kind, ts: m.payload.ts, p: m.payload, r: m.receivedAt }));
+  // Straight through the transaction's own pg connection: Sequelize's result handling costs more than the insert.
+  const connection = (t as unknown as { connection: { query(text: string, values: unknown[]): Promise<{ rows: { k: string }[] }> } }).connection;
+  const out = await connection.query(
     `INSERT INTO messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at)
-     SELECT * FROM unnest($1::text[], $2::bigint[], $3::bigint[], $4::text[], $5::int[], $6::text[], $7::timestamptz[], $8::jsonb[], $9::timestamptz[])
+     SELECT g, b, s, u, st, k, ts, p, to_timestamp(r / 1000.0)
+     FROM jsonb_to_recordset($1::jsonb) AS x(g text, b bigint, s bigint, u text, st int, k text, ts timestamptz, p jsonb, r float8)
      ON CONFLICT DO NOTHING
-     RETURNING gateway_id, boot, seq`,
-    {
-      bind: [
-        items.map((m) => m.gatewayId),
-        items.map((m) => m.boot),
-        items.map((m) => m.seq),
-        items.map((m) => m.unitId),
-        items.map((m) => m.stream),
-        items.map((m) => m.kind),
-        items.map((m) => new Date(m.ts).toISOString()),
-        items.map((m) => JSON.stringify(m.payload)),
-        items.map((m) => new Date(m.receivedAt).toISOString()),
-      ],
-      type: QueryTypes.SELECT,
-      transaction: t,
-    },
+     RETURNING gateway_id || '|' || boot || '|' || seq AS k`,
+    [JSON.stringify(rows)],
   );
-  return new Set(rows.map((r) => key(r.gateway_id, Number(r.boot), Number(r.seq))));
+  return new Set(out.rows.map((r) => r.k));
 }
 
 // PostgreSQL text cannot hold NUL; a hostile payload (or a parser's message quoting it) may carry one.

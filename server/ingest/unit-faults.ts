@@ -33,6 +33,7 @@ export async function judgeCan(sequelize: Sequelize, t: Transaction, m: UnitMemo
   const inOrder = !m.lastCan || comparePositions(ordered[0].position, m.lastCan) > 0;
   const activations: FaultActivation[] = [];
   if (inOrder) {
+    m.dm1 = Dm1Tracker.restore(m.dm1.snapshot()); // copy on write: the committed memory keeps its own
     for (const c of ordered) activations.push(...m.dm1.pushAll(toTracker(c.frames)).activations);
     m.lastCan = ordered[ordered.length - 1].position;
   } else {

@@ -3,7 +3,7 @@
 // memory (swapped in after commit). It only reads the database, so a unit that fails leaves no trace.
 import type { Sequelize, Transaction } from 'sequelize';
 import { judgeUnit } from '../detection/judge-unit';
-import { judgingWindow } from '../detection/window';
+import { judgeWithWindow } from '../detection/window';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
 import { cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
@@ -67,7 +67,7 @@ export async function judgeUnitInBatch(
     now,
     context: m.context,
   };
-  const judgement = judgeUnit(input);
+  const { judgement, window: win } = judgeWithWindow(input, { validate: false });
   const returned = new Set(judgement.episodes.map((e) => positionKey(e.keyOff)));
   // A stored episode in the window whose key-off is no longer one (a late message filled a gap before it).
   const gone = [...m.episodes.values()].filter((s) => !returned.has(positionKey(s.episode.keyOff)));
@@ -81,7 +81,6 @@ export async function judgeUnitInBatch(
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
   if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write, deleted);
 
-  const win = judgingWindow(input);
   m.windowStart = win.start;
   m.context = win.context;
   m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];

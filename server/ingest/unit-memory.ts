@@ -41,9 +41,9 @@ export function newMemory(profile: UnitProfile, wallNow: number): UnitMemory {
   };
 }
 
-/** A copy to work on inside a transaction; swapped in only after commit. */
+/** A copy to work on inside a transaction; swapped in only after commit. The DM1 tracker is copied on write (unit-faults.ts). */
 export function cloneMemory(m: UnitMemory): UnitMemory {
-  return { ...m, events: m.events.slice(), episodes: new Map(m.episodes), dm1: Dm1Tracker.restore(m.dm1.snapshot()) };
+  return { ...m, events: m.events.slice(), episodes: new Map(m.episodes) };
 }
 
 /**
