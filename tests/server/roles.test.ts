@@ -1,10 +1,7 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestService, type TestService } from '../helpers/service';
+import { ALL_ROLES as ALL, roleMatrix, type MatrixRoute as Route } from '../helpers/role-matrix';
 
 // The README's role table, route by route. ALL = every role; ADMIN = admins only.
-const ALL = ['admin', 'monitor', 'planner', 'technician'];
 const ADMIN = ['admin'];
-type Route = { method: 'get' | 'post' | 'patch' | 'delete'; path: string; body?: object; allowed: string[] };
 const ROUTES: Route[] = [
   { method: 'get', path: '/api/auth/me', allowed: ALL },
   { method: 'get', path: '/api/units', allowed: ALL },
@@ -20,38 +17,17 @@ const ROUTES: Route[] = [
   { method: 'get', path: '/api/audit', allowed: ADMIN },
   { method: 'get', path: '/api/episodes', allowed: ALL },
   { method: 'get', path: '/api/faults', allowed: ALL },
+  { method: 'get', path: '/api/units/RM-1/readings', allowed: ALL },
+  { method: 'get', path: '/api/units/RM-1/timeline', allowed: ALL },
+  { method: 'get', path: '/api/alerts', allowed: ALL },
+  { method: 'post', path: '/api/alerts/999999/acknowledge', body: {}, allowed: ['admin', 'monitor'] },
+  { method: 'post', path: '/api/alerts/999999/resolve', body: {}, allowed: ['admin', 'monitor'] },
+  { method: 'get', path: '/api/switch-pages', allowed: ADMIN },
+  { method: 'post', path: '/api/switch-pages/RM-1', allowed: ADMIN },
+  { method: 'delete', path: '/api/switch-pages/RM-1', allowed: ADMIN },
+  { method: 'get', path: '/api/metrics', allowed: ADMIN },
 ];
 
-let t: TestService;
-const tokens: Record<string, string> = {};
-beforeAll(async () => {
-  t = await startTestService();
-  tokens.admin = await t.token();
-  await t.api.post('/api/units').set('Authorization', `Bearer ${tokens.admin}`).send({ id: 'RM-1', name: 'Role matrix unit', depot: 'North', systemVoltage: 12 });
-  for (const role of ALL.slice(1)) {
-    const email = `${role}@test.local`;
-    await t.api.post('/api/users').set('Authorization', `Bearer ${tokens.admin}`).send({ email, name: role, role, password: `${role}-password-1` });
-    tokens[role] = await t.token(email, `${role}-password-1`);
-  }
-});
-afterAll(async () => t?.stop());
-
-describe('role matrix', () => {
-  for (const route of ROUTES) {
-    for (const role of ALL) {
-      const allowed = route.allowed.includes(role);
-      it(`${route.method.toUpperCase()} ${route.path} is ${allowed ? 'open' : 'closed'} to ${role}`, async () => {
-        const req = t.api[route.method](route.path).set('Authorization', `Bearer ${tokens[role]}`);
-        const res = route.body ? await req.send(route.body) : await req;
-        if (allowed) expect([401, 403]).not.toContain(res.status);
-        else {
-          expect(res.status).toBe(403);
-          expect(res.body.error.code).toBe('forbidden');
-        }
-      });
-    }
-    it(`${route.method.toUpperCase()} ${route.path} needs a token`, async () => {
-      expect((await t.api[route.method](route.path)).status).toBe(401);
-    });
-  }
+roleMatrix('role matrix', ROUTES, async (t, admin) => {
+  await t.api.post('/api/units').set('Authorization', `Bearer ${admin}`).send({ id: 'RM-1', name: 'Role matrix unit', depot: 'North', systemVoltage: 12 });
 });

@@ -3,6 +3,9 @@ import { deflateSync } from 'node:zlib';
 import type { TestService } from '../../helpers/service';
 import { connectGateway, provision } from '../../helpers/gateway';
 import { MessageSeq } from '../../helpers/messages';
+import { until } from '../../helpers/until';
+
+export { until };
 
 export async function addUser(t: TestService, admin: string, role: string, email = `${role}@test.local`) {
   const res = await t.api.post('/api/users').set('Authorization', `Bearer ${admin}`).send({ email, name: `The ${role}`, role, password: `${role}-password-1` });
@@ -10,15 +13,6 @@ export async function addUser(t: TestService, admin: string, role: string, email
   return { id: res.body.id as number, email, token: await t.token(email, `${role}-password-1`) };
 }
 
-export async function until<T>(fn: () => T | undefined | null | false | Promise<T | undefined | null | false>, ms = 8000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error('condition not met in time');
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
 
 /** A unit whose purge is cut 12 s in (supply lost) at -14 °C: the alert engine raises an interruptedPurge alert. */
 export async function interruptedUnit(t: TestService, admin: string, unit: { id: string; depot?: string; systemVoltage?: 12 | 24 }) {

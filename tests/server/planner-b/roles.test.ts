@@ -1,9 +1,6 @@
 // The README's role table for the planner's desk B routes, every role against every route.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestService, type TestService } from '../../helpers/service';
+import { ALL_ROLES as ALL, roleMatrix, type MatrixRoute as Route } from '../../helpers/role-matrix';
 
-const ALL = ['admin', 'monitor', 'planner', 'technician'];
-type Route = { method: 'get' | 'post' | 'put' | 'delete'; path: string; body?: object; allowed: string[] };
 const ROUTES: Route[] = [
   { method: 'get', path: '/api/work-orders', allowed: ALL },
   { method: 'get', path: '/api/work-orders/999999', allowed: ALL },
@@ -31,35 +28,4 @@ const ROUTES: Route[] = [
   { method: 'post', path: '/api/forecast/refresh', allowed: ['admin', 'planner'] },
 ];
 
-let t: TestService;
-const tokens: Record<string, string> = {};
-beforeAll(async () => {
-  t = await startTestService();
-  tokens.admin = await t.token();
-  for (const role of ALL.slice(1)) {
-    const email = `${role}@test.local`;
-    await t.api.post('/api/users').set('Authorization', `Bearer ${tokens.admin}`).send({ email, name: role, role, password: `${role}-password-1` });
-    tokens[role] = await t.token(email, `${role}-password-1`);
-  }
-});
-afterAll(async () => t?.stop());
-
-describe('role matrix of work orders, roster, mail and forecast', () => {
-  for (const route of ROUTES) {
-    for (const role of ALL) {
-      const allowed = route.allowed.includes(role);
-      it(`${route.method.toUpperCase()} ${route.path} is ${allowed ? 'open' : 'closed'} to ${role}`, async () => {
-        const req = t.api[route.method](route.path).set('Authorization', `Bearer ${tokens[role]}`);
-        const res = route.body ? await req.send(route.body) : await req;
-        if (allowed) expect([401, 403]).not.toContain(res.status);
-        else {
-          expect(res.status).toBe(403);
-          expect(res.body.error.code).toBe('forbidden');
-        }
-      });
-    }
-    it(`${route.method.toUpperCase()} ${route.path} needs a token`, async () => {
-      expect((await t.api[route.method](route.path)).status).toBe(401);
-    });
-  }
-});
+roleMatrix('role matrix of work orders, roster, mail and forecast', ROUTES);

@@ -4,6 +4,7 @@ import { startTestService, type TestService } from '../../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../../helpers/gateway';
 import { MessageSeq } from '../../helpers/messages';
 import { openLive } from '../../helpers/live-client';
+import { until } from '../../helpers/until';
 import { indicatorTopic } from '../../../shared/protocol/topics';
 import { IndicatorSchema } from '../../../shared/protocol/messages';
 
@@ -28,16 +29,6 @@ function indicatorInbox(gw: TestGateway) {
   const got: ReturnType<typeof IndicatorSchema.parse>[] = [];
   gw.client.on('message', (_topic, payload) => got.push(IndicatorSchema.parse(JSON.parse(payload.toString()))));
   return got;
-}
-
-async function until<T>(fn: () => T | undefined | Promise<T | undefined>, ms = 5000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await fn();
-    if (v) return v;
-    if (Date.now() > end) throw new Error('condition not met in time');
-    await new Promise((r) => setTimeout(r, 25));
-  }
 }
 
 describe('live feed and indicator', () => {
