@@ -66,7 +66,7 @@ function Profile({ unit, isAdmin, onEdit }: { unit: Unit; isAdmin: boolean; onEd
     ['System voltage', `${unit.systemVoltage} V`],
     ['Purge length', `${unit.purgeSeconds} s`],
     ['Loss threshold', `${unit.lossThresholdV.toFixed(1)} V`],
-    ['Linked SPNs', unit.linkSpns && unit.linkSpns.length ? unit.linkSpns.join(', ') : 'default set'],
+    ['Linked SPNs', unit.linkSpns && unit.linkSpns.length ? unit.linkSpns.join(', ') : 'all SPNs'], // null: every fault may be linked (protocol rule 10)
     ['Gateway', unit.gatewayId ?? 'none'],
   ];
   return (
