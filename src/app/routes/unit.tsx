@@ -66,7 +66,8 @@ function Profile({ unit, isAdmin, onEdit }: { unit: Unit; isAdmin: boolean; onEd
     ['System voltage', `${unit.systemVoltage} V`],
     ['Purge length', `${unit.purgeSeconds} s`],
     ['Loss threshold', `${unit.lossThresholdV.toFixed(1)} V`],
-    ['Linked SPNs', unit.linkSpns && unit.linkSpns.length ? unit.linkSpns.join(', ') : 'all SPNs'], // null: every fault may be linked (protocol rule 10)
+    // Protocol rule 10: no list links faults of every SPN; a list (even an empty one) only those.
+    ['Linked SPNs', unit.linkSpns === null ? 'all SPNs' : unit.linkSpns.length ? unit.linkSpns.join(', ') : 'none'],
     ['Gateway', unit.gatewayId ?? 'none'],
   ];
   return (
