@@ -6,6 +6,24 @@ import { join } from 'node:path';
 import { freePort } from '../../scripts/lib/local-postgres';
 import { ADMIN } from './service';
 
+/** Whether the process holds a listening socket on the port (from /proc/net/tcp and its fds). */
+async function portOwnedBy(pid: number, port: number): Promise<boolean> {
+  const { readFileSync, readdirSync, readlinkSync } = await import('node:fs');
+  const hex = port.toString(16).toUpperCase().padStart(4, '0');
+  const inodes = new Set(
+    readFileSync('/proc/net/tcp', 'utf8').split('\n').slice(1).map((l) => l.trim().split(/\s+/)).filter((f) => f[1]?.endsWith(`:${hex}`) && f[3] === '0A').map((f) => f[9]),
+  );
+  for (const fd of readdirSync(`/proc/${pid}/fd`)) {
+    try {
+      const m = /^socket:\[(\d+)\]$/.exec(readlinkSync(`/proc/${pid}/fd/${fd}`));
+      if (m && inodes.has(m[1])) return true;
+    } catch {
+      /* closed meanwhile */
+    }
+  }
+  return false;
+}
+
 export interface ServiceProcess {
   url: string;
   mqttUrl: string;
@@ -28,7 +46,8 @@ export async function serviceProcess(databaseUrl: string, env: Record<string, st
     mqttUrl: `mqtt://127.0.0.1:${mqttPort}`,
     output: () => log,
     async start() {
-      child = spawn(process.execPath, [join('node_modules', 'tsx', 'dist', 'cli.mjs'), 'server/index.ts'], {
+      // tsx as a loader in the one process (its CLI would run the script in a child that kill -9 would miss).
+      child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
         env: {
           PATH: process.env.PATH ?? '', HOME: process.env.HOME ?? '/root',
           DATABASE_URL: databaseUrl, PORT: String(port), MQTT_PORT: String(mqttPort), DATA_DIR: dataDir,
@@ -44,7 +63,8 @@ export async function serviceProcess(databaseUrl: string, env: Record<string, st
         if (child.exitCode !== null) throw new Error(`service exited at start:\n${log}`);
         try {
           const res = await fetch(`${url}/api/health`);
-          if (res.status === 200) return;
+          // Only this child's answer counts (a killed predecessor must not be mistaken for it).
+          if (res.status === 200 && child.exitCode === null && (await portOwnedBy(child.pid!, port))) return;
         } catch {
           /* not up yet */
         }
