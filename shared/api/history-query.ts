@@ -86,4 +86,5 @@ export const HistoryFaultRowSchema = z.object({
 });
 export type HistoryFaultRow = z.infer<typeof HistoryFaultRowSchema>;
 
-export const pageOf = <T extends z.ZodType>(row: T) => z.object({ rows: z.array(row), total: z.number(), page: z.number(), pageSize: z.number() });
+/** `totalCapped`: there are more rows than `total` (the server counts up to a cap). */
+export const pageOf = <T extends z.ZodType>(row: T) => z.object({ rows: z.array(row), total: z.number(), totalCapped: z.boolean().optional(), page: z.number(), pageSize: z.number() });

@@ -8,6 +8,7 @@ import { countEpisodes, pageOfEpisodes } from './episodes';
 import { countFaults, pageOfFaults } from './faults';
 import { EPISODE_CSV, FAULT_CSV, presentHistoryEpisode, presentHistoryFault } from './presenter';
 import { streamCsv } from './csv-stream';
+import { COUNT_CAP } from './sql-builder';
 
 const log = logger('history');
 const stamp = () => new Date().toISOString().slice(0, 19).replace(/[-:]/g, '').replace('T', '-');
@@ -19,7 +20,7 @@ export function historyRoutes(ctx: AppContext) {
   r.get('/episodes', requirePermission('episodes.read'), async (req, res) => {
     const q = HistoryEpisodeQuerySchema.parse(req.query);
     const [total, rows] = await Promise.all([countEpisodes(db, q), pageOfEpisodes(db, q, q.pageSize, (q.page - 1) * q.pageSize)]);
-    res.json({ rows: rows.map(presentHistoryEpisode), total, page: q.page, pageSize: q.pageSize });
+    res.json({ rows: rows.map(presentHistoryEpisode), total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page: q.page, pageSize: q.pageSize });
   });
 
   r.get('/episodes/export.csv', requirePermission('episodes.read'), async (req, res) => {
@@ -33,7 +34,7 @@ export function historyRoutes(ctx: AppContext) {
   r.get('/faults', requirePermission('faults.read'), async (req, res) => {
     const q = HistoryFaultQuerySchema.parse(req.query);
     const [total, rows] = await Promise.all([countFaults(db, q), pageOfFaults(db, q, q.pageSize, (q.page - 1) * q.pageSize)]);
-    res.json({ rows: rows.map(presentHistoryFault), total, page: q.page, pageSize: q.pageSize });
+    res.json({ rows: rows.map(presentHistoryFault), total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page: q.page, pageSize: q.pageSize });
   });
 
   r.get('/faults/export.csv', requirePermission('faults.read'), async (req, res) => {

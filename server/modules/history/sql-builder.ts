@@ -31,3 +31,6 @@ export const driverAt = (unitCol: string, timeCol: string, alias = 'd') => `
     ORDER BY a.from_at DESC LIMIT 1
   ) ${alias}a ON true
   LEFT JOIN drivers ${alias} ON ${alias}.id = ${alias}a.driver_id`;
+
+/** The pager counts at most this many rows (a count of millions would cost more than the page itself). */
+export const COUNT_CAP = 10_000;

@@ -69,7 +69,7 @@ export function HistoryPage() {
       )}
       {current.data && (
         // The page shown is the one the rows came from, so the pager never runs ahead of the table while the next page loads.
-        <Pager page={current.data.page} pageSize={current.data.pageSize} total={current.data.total} loading={current.isPlaceholderData}
+        <Pager page={current.data.page} pageSize={current.data.pageSize} total={current.data.total} capped={current.data.totalCapped} loading={current.isPlaceholderData}
           onPage={(page) => update({ page })} onPageSize={(pageSize) => update({ pageSize, page: 1 })} />
       )}
     </>

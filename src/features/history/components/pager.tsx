@@ -5,20 +5,22 @@ export interface PagerProps {
   page: number;
   pageSize: number;
   total: number;
+  /** More rows than `total` exist (the server stops counting at a cap). */
+  capped?: boolean;
   onPage: (page: number) => void;
   onPageSize: (size: number) => void;
   /** The next page is on its way; the rows shown are still the previous page's. */
   loading?: boolean;
 }
 
-export function Pager({ page, pageSize, total, onPage, onPageSize, loading = false }: PagerProps) {
+export function Pager({ page, pageSize, total, capped = false, onPage, onPageSize, loading = false }: PagerProps) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
   const last = Math.min(total, page * pageSize);
   return (
     <nav aria-label="Pages" className="mt-3 flex flex-wrap items-center justify-between gap-3 text-muted">
       <p aria-live="polite">
-        {total === 0 ? 'No rows' : `Rows ${first}–${last} of ${total}`}
+        {total === 0 ? 'No rows' : `Rows ${first}–${last} of ${total.toLocaleString('en')}${capped ? '+' : ''}`}
         {loading && <span className="ml-2 text-sm">(loading…)</span>}
       </p>
       <div className="flex items-center gap-2">
