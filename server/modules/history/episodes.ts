@@ -1,7 +1,7 @@
 // Fleet episodes with filters, whitelisted sorting and paging; the same query feeds the CSV export.
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { EpisodeSort, HistoryEpisodeQuery } from '../../../shared/api/history-query';
-import { COUNT_CAP, driverAt, Where } from './sql-builder';
+import { cappedCount, driverAt, Where } from './sql-builder';
 
 export interface HistoryEpisodeRecord {
   id: string; unit_id: string; unit_name: string; depot: string; driver_id: number | null; driver_name: string | null;
@@ -39,10 +39,7 @@ const FROM = `${FROM_BASE} ${driverAt('e.unit_id', 'e.key_off_at')}`;
 
 /** The pager's total; the driver join is only paid for when the driver is a filter. */
 export async function countEpisodes(sequelize: Sequelize, q: Filters) {
-  const w = where(q);
-  // Counted up to a cap: past it the pager says "10,000+" rather than counting a depot's whole history.
-  const [row] = await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM (SELECT 1 ${q.driverId ? FROM : FROM_BASE} ${w.sql} LIMIT ${COUNT_CAP + 1}) capped`, { bind: w.bind, type: QueryTypes.SELECT });
-  return Number(row.n);
+  return cappedCount(sequelize, q.driverId ? FROM : FROM_BASE, where(q));
 }
 
 export async function pageOfEpisodes(sequelize: Sequelize, q: HistoryEpisodeQuery, limit: number, offset: number, transaction?: Transaction) {

@@ -1,3 +1,5 @@
+import { QueryTypes, type Sequelize } from 'sequelize';
+
 // A WHERE clause built from optional filters with numbered bind parameters (values never enter the SQL text).
 export class Where {
   readonly bind: unknown[] = [];
@@ -34,3 +36,9 @@ export const driverAt = (unitCol: string, timeCol: string, alias = 'd') => `
 
 /** The pager counts at most this many rows (a count of millions would cost more than the page itself). */
 export const COUNT_CAP = 10_000;
+
+/** The pager's total, counted up to COUNT_CAP + 1 (past the cap it says "10,000+"). */
+export async function cappedCount(sequelize: Sequelize, from: string, w: Where): Promise<number> {
+  const [row] = await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM (SELECT 1 ${from} ${w.sql} LIMIT ${COUNT_CAP + 1}) capped`, { bind: w.bind, type: QueryTypes.SELECT });
+  return Number(row.n);
+}
