@@ -8,8 +8,9 @@ import { useUnits } from '../../features/units/api/get-units';
 import { useBatteryFleet } from '../../features/battery/api/get-battery';
 import { BatteryTable } from '../../features/battery/components/battery-table';
 import { UnitBattery } from '../../features/battery/components/unit-battery';
+import { CONTROL_CLASS, DepotSelect } from '../../components/ui/depot-select';
 
-const control = 'rounded-md border border-line bg-raised px-3 py-2 text-base text-fg focus:border-accent focus:outline-none';
+const control = CONTROL_CLASS;
 const SPANS = [7, 14, 30];
 
 export function BatteryPage() {
@@ -41,13 +42,7 @@ export function BatteryPage() {
             {SPANS.map((d) => <option key={d} value={d}>{d} days</option>)}
           </select>
         </label>
-        <label className="flex flex-col gap-1 text-sm font-medium text-muted">
-          Depot
-          <select value={depot} onChange={(e) => set('depot', e.target.value)} className={control}>
-            <option value="">All depots</option>
-            {depots.map((d) => <option key={d} value={d}>{d}</option>)}
-          </select>
-        </label>
+        <DepotSelect value={depot} depots={depots} onChange={(d) => set('depot', d)} className={control} />
       </div>
       {fleet.isPending && <Loading label="Reading the parks…" />}
       {fleet.isError && <ErrorNotice title="Could not load battery drain" error={fleet.error} />}

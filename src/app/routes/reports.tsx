@@ -9,8 +9,9 @@ import { FiguresTable } from '../../features/reports/components/figures-table';
 import { ReportTotals } from '../../features/reports/components/report-totals';
 import { TrendChart } from '../../features/reports/components/trend-chart';
 import { isoWeekLabel, isoWeekStart } from '../../../shared/api/reports';
+import { CONTROL_CLASS, DepotSelect } from '../../components/ui/depot-select';
 
-const control = 'rounded-md border border-line bg-raised px-3 py-2 text-base text-fg focus:border-accent focus:outline-none';
+const control = CONTROL_CLASS;
 const WEEK_SPANS = [4, 8, 12, 26];
 
 export function ReportsPage() {
@@ -43,13 +44,7 @@ export function ReportsPage() {
             {WEEK_SPANS.map((n) => <option key={n} value={n}>{n} weeks</option>)}
           </select>
         </label>
-        <label className="flex flex-col gap-1 text-sm font-medium text-muted">
-          Depot
-          <select value={depot} onChange={(e) => set('depot', e.target.value)} className={control}>
-            <option value="">All depots</option>
-            {depots.map((d) => <option key={d} value={d}>{d}</option>)}
-          </select>
-        </label>
+        <DepotSelect value={depot} depots={depots} onChange={(d) => set('depot', d)} className={control} />
       </div>
       {report.isPending && <Loading label="Building the report…" />}
       {report.isError && <ErrorNotice title="Could not load the report" error={report.error} />}
