@@ -29,11 +29,6 @@ export class GatewayDirectory {
     return e;
   }
 
-  /** The stream a unit's gateway writes: used when events are loaded back from the database. */
-  streamsOf(unitId: string): GatewayEntry[] {
-    return [...this.byId.values()].filter((e): e is GatewayEntry => !!e && e.unitId === unitId);
-  }
-
   /** The unit's gateway that is not revoked, if any. */
   activeGatewayOf(unitId: string): string | null {
     for (const e of this.byId.values()) if (e && e.unitId === unitId && !e.revoked) return e.gatewayId;

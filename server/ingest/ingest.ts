@@ -42,7 +42,6 @@ export function createIngest(opts: IngestOptions) {
   const events = createFleetEvents();
   const counters: IngestCounters = { accepted: 0, duplicates: 0, quarantined: 0, quarantinedByReason: {} };
   const judgeErrors = { count: 0 };
-  const connection = new Map<string, StatusMessage & { at: number }>();
   const book = new UnitBook(sequelize, wallNow, log);
 
   const batch = new GroupCommit<IngestItem>({ maxItems: opts.batchMax, maxAgeMs: opts.batchMs, flush: flushOrIsolate });
@@ -179,7 +178,6 @@ export function createIngest(opts: IngestOptions) {
     wallNow,
     maxBacklog: opts.maxBacklog ?? 20_000,
     onStatus: (gatewayId, status) => {
-      connection.set(gatewayId, { ...status, at: wallNow() });
       void directory.get(gatewayId).then((gw) => opts.onStatus?.(gatewayId, gw?.unitId ?? null, status));
     },
   });
@@ -209,7 +207,6 @@ export function createIngest(opts: IngestOptions) {
     judgeErrors,
     directory,
     book,
-    connection,
     async start() {
       await directory.load();
       await book.loadAll();
@@ -221,10 +218,6 @@ export function createIngest(opts: IngestOptions) {
     drain: () => batch.drain(),
     get backlog() {
       return batch.backlog;
-    },
-    unitNow: (unitId: string) => {
-      const m = book.peek(unitId);
-      return m ? book.clock(m, wallNow()) : wallNow();
     },
     async stop() {
       if (ticker) clearInterval(ticker);

@@ -4,13 +4,12 @@ import type { Logger } from 'pino';
 import { Unit } from '../db/models/unit';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 import { KEY_ON_SILENCE_MS, SAFE_SILENCE_MS, SETTLE_GRACE_MS } from '../../shared/protocol/limits';
-import { judgeUnit } from '../detection/judge-unit';
-import { judgingWindow } from '../detection/window';
+import { judgeWithWindow } from '../detection/window';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { JudgeInput } from '../detection/types';
 import { emptyLiveUnitView, type LiveUnitView } from '../lib/context';
 import { latestEpisodes, loadDm1State, loadEvents } from './episode-store';
-import { newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
+import { applyWindow, newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
@@ -129,12 +128,9 @@ export class UnitBook {
       now: this.clock(m, this.wallNow()),
       context: null,
     };
-    m.state = judgeUnit(input).state;
-    const win = judgingWindow(input);
-    m.windowStart = win.start;
-    m.context = win.context;
-    m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];
-    for (const [k, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(k);
+    const { judgement, window: win } = judgeWithWindow(input, { validate: false });
+    m.state = judgement.state;
+    applyWindow(m, win, input.events);
     const dm1 = await loadDm1State(this.sequelize, profile.unitId);
     if (dm1) {
       m.dm1 = Dm1Tracker.restore(dm1.snapshot);

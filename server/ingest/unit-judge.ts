@@ -6,7 +6,7 @@ import { judgeUnit } from '../detection/judge-unit';
 import { judgeWithWindow } from '../detection/window';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
-import { cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
+import { applyWindow, cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
 import { loadBootEvents, loadEpisodes } from './episode-store';
 
 export interface JudgeResult {
@@ -81,10 +81,7 @@ export async function judgeUnitInBatch(
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
   if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write, deleted);
 
-  m.windowStart = win.start;
-  m.context = win.context;
-  m.events = win.start ? input.events.filter((e) => comparePositions(e, win.start!) >= 0) : [];
-  for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(key);
+  applyWindow(m, win, input.events);
   return { memory: m, changed, deleted, before: previousVersions };
 }
 

@@ -2,6 +2,8 @@
 // inside it, the DM1 tracker, the last readings and the state. The database is the source of truth;
 // all of this is rebuilt from it at start-up.
 import type { Episode, EventPosition, JudgeContext, Profile, UnitEvent, UnitState } from '../detection/types';
+import type { JudgingWindow } from '../detection/window';
+import { comparePositions } from '../detection/positions';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 
 export interface StoredEpisode {
@@ -52,4 +54,12 @@ export function cloneMemory(m: UnitMemory): UnitMemory {
  */
 export function unitNow(m: UnitMemory, wallNow: number): number {
   return m.lastTs === null ? wallNow : m.lastTs + Math.max(0, wallNow - m.lastArrival);
+}
+
+/** Keeps only what the next judgement needs (window.ts): the events and stored episodes from the window's start on, and its context. */
+export function applyWindow(m: UnitMemory, win: JudgingWindow, ordered: UnitEvent[]) {
+  m.windowStart = win.start;
+  m.context = win.context;
+  m.events = win.start ? ordered.filter((e) => comparePositions(e, win.start!) >= 0) : [];
+  for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(key);
 }

@@ -21,5 +21,3 @@ export function logger(module: string): Logger {
   }
   return child;
 }
-
-export const rootLogger = () => root;

@@ -5,9 +5,6 @@ export type UplinkKind = (typeof UPLINK_KINDS)[number];
 
 export const uplinkTopic = (gatewayId: string, kind: UplinkKind) => `${TOPIC_ROOT}/${gatewayId}/${kind}`;
 export const indicatorTopic = (gatewayId: string) => `${TOPIC_ROOT}/${gatewayId}/indicator`;
-/** What the service subscribes to: every gateway's uplink topics. */
-export const UPLINK_WILDCARD = `${TOPIC_ROOT}/+/+`;
-
 export interface ParsedTopic {
   gatewayId: string;
   kind: UplinkKind | 'indicator';
