@@ -11,5 +11,6 @@ import { migration as addGatewayBrokerHash } from './20261202040000-add-gateway-
 import { migration as createDrivers } from './20261202050000-create-drivers';
 import { migration as partitionMessages } from './20261202045000-partition-messages';
 import { migration as plannerDeskB } from './20261202060000-planner-desk-b';
+import { migration as episodesHistoryOrderIndex } from './20261202070000-episodes-history-order-index';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB, episodesHistoryOrderIndex];
