@@ -1,5 +1,6 @@
 // `npm run bench [-- --quick] [--runs N]`: the product against the bare pipeline on this machine, with its
 // own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
+// `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data).
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -10,6 +11,8 @@ const args = process.argv.slice(2);
 const quick = args.includes('--quick');
 const runsArg = args.indexOf('--runs');
 const runs = runsArg >= 0 ? Number(args[runsArg + 1]) : quick ? 1 : 3;
+const onlyArg = args.indexOf('--only');
+const only = onlyArg >= 0 ? args[onlyArg + 1] : null;
 const P = quick
   ? { gateways: 100, durationS: 6, liveUnits: 1000, liveS: 20, events: 40, weekendUnits: 40, historyTries: 20 }
   : { gateways: 200, durationS: 20, liveUnits: 10_000, liveS: 45, events: 200, weekendUnits: 200, historyTries: 100 };
@@ -22,13 +25,31 @@ const stats = (xs: (number | null)[]) => {
 const fmt = (s: ReturnType<typeof stats>, unit = '', digits = 0) =>
   s ? `${s.median.toFixed(digits)}${unit} (${s.min.toFixed(digits)}–${s.max.toFixed(digits)})` : 'n/a';
 
+/** The history step alone, on a fleet of the live run's size (its data is made by the step itself). */
+async function historyOnly(adminUrl: string) {
+  say(`history only: ${P.liveUnits} units, 90 days of purges each, a depot's history page`);
+  const live = await startProduct(adminUrl, 'bench_history', P.liveUnits);
+  try {
+    const history = await historyQuery(live, P.historyTries);
+    process.stdout.write(`history          a depot's 90-day page over ${history.episodes} episodes: p50 ${history.p50Ms?.toFixed(1)} ms, p95 ${history.p95Ms?.toFixed(1)} ms (target < 200 ms)\n`);
+    mkdirSync('bench-results', { recursive: true });
+    const file = join('bench-results', `bench-history-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+    writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'history', params: P, history }, null, 2));
+    process.stdout.write(`results written to ${file}\n`);
+  } finally {
+    await live.stop();
+  }
+}
+
 async function main() {
+  if (only !== null && only !== 'history') throw new Error(`--only knows one step: history (got ${only})`);
   const dir = mkdtempSync(join(tmpdir(), 'afterwatch-bench-pg-'));
   say(`afterwatch bench: ${quick ? 'quick' : 'full'}, ${runs} run(s)`);
   const pg = await startLocalPostgres({ dataDir: dir, database: 'postgres' });
   const adminUrl = pg.url;
   const out: Record<string, unknown> = { at: new Date().toISOString(), quick, runs, params: P };
   try {
+    if (only === 'history') return await historyOnly(adminUrl);
     const bareRuns: ThroughputFigures[] = [];
     const prodRuns: ThroughputFigures[] = [];
     for (let r = 0; r < runs; r++) {
