@@ -10,15 +10,17 @@ export interface HistoryEpisodeRecord {
 }
 
 // The only SQL that a sort parameter can reach; the schema has already refused anything else.
-const SORT_SQL: Record<EpisodeSort, string> = {
-  keyOffAt: 'e.key_off_at',
-  unitId: 'e.unit_id',
-  depot: 'u.depot',
-  driver: 'd.name',
-  outcome: 'e.outcome',
-  secondsIntoPurge: 'e.seconds_into_purge',
-  ambientC: 'e.ambient_c',
-  freezeExposure: 'e.freeze_exposure',
+// `nullable`: the column can be empty. Empty values go last in either direction; a column that is
+// never empty needs no NULLS clause, and without one an index can serve the order both ways.
+const SORT_SQL: Record<EpisodeSort, { sql: string; nullable: boolean }> = {
+  keyOffAt: { sql: 'e.key_off_at', nullable: false },
+  unitId: { sql: 'e.unit_id', nullable: false },
+  depot: { sql: 'u.depot', nullable: false },
+  driver: { sql: 'd.name', nullable: true },
+  outcome: { sql: 'e.outcome', nullable: false },
+  secondsIntoPurge: { sql: 'e.seconds_into_purge', nullable: true },
+  ambientC: { sql: 'e.ambient_c', nullable: true },
+  freezeExposure: { sql: 'e.freeze_exposure', nullable: true },
 };
 
 type Filters = Omit<HistoryEpisodeQuery, 'page' | 'pageSize' | 'sort' | 'dir'>;
@@ -42,16 +44,27 @@ export async function countEpisodes(sequelize: Sequelize, q: Filters) {
   return cappedCount(sequelize, q.driverId ? FROM : FROM_BASE, where(q));
 }
 
+/**
+ * One page in two steps: the inner query filters, sorts and cuts the page reading only what the
+ * filters and the sort need (for a depot's newest episodes, the key-off index and the units); the
+ * outer one reads the page's rows, their driver and their fault count. The driver is joined inside
+ * only when it filters or sorts.
+ */
 export async function pageOfEpisodes(sequelize: Sequelize, q: HistoryEpisodeQuery, limit: number, offset: number, transaction?: Transaction) {
   const w = where(q);
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
-  // Empty values last in either direction; the id makes the order total, so pages never overlap.
-  const order = `${SORT_SQL[q.sort]} ${dir} NULLS LAST, e.id ${dir}`;
+  const sort = SORT_SQL[q.sort];
+  const nulls = sort.nullable ? ' NULLS LAST' : '';
+  const driverInside = Boolean(q.driverId) || q.sort === 'driver';
+  // The id makes the order total, so pages never overlap.
+  const page = `SELECT e.id, ${sort.sql} AS sort_key, u.name AS unit_name, u.depot${driverInside ? ', d.id AS driver_id, d.name AS driver_name' : ''}
+     ${driverInside ? FROM : FROM_BASE} ${w.sql} ORDER BY ${sort.sql} ${dir}${nulls}, e.id ${dir} LIMIT ${w.param(limit)} OFFSET ${w.param(offset)}`;
   return sequelize.query<HistoryEpisodeRecord>(
-    `SELECT e.id, e.unit_id, u.name AS unit_name, u.depot, d.id AS driver_id, d.name AS driver_name, e.key_off_at, e.purge_seconds,
+    `SELECT e.id, e.unit_id, p.unit_name, p.depot, ${driverInside ? 'p.driver_id, p.driver_name' : 'd.id AS driver_id, d.name AS driver_name'}, e.key_off_at, e.purge_seconds,
             e.outcome, e.settled_by, e.ended_at, e.seconds_into_purge, e.ambient_c, e.min_ambient_after_c, e.freeze_exposure,
             (SELECT count(*) FROM faults f WHERE f.episode_id = e.id)::int AS fault_count
-     ${FROM} ${w.sql} ORDER BY ${order} LIMIT ${w.param(limit)} OFFSET ${w.param(offset)}`,
+     FROM (${page}) p JOIN episodes e ON e.id = p.id ${driverInside ? '' : driverAt('e.unit_id', 'e.key_off_at')}
+     ORDER BY p.sort_key ${dir}${nulls}, p.id ${dir}`,
     { bind: w.bind, type: QueryTypes.SELECT, transaction },
   );
 }
