@@ -1,0 +1,103 @@
+// What one worker tells the others over PostgreSQL NOTIFY: the units it judged (their views, ordered by
+// units.judged_version) and the units whose episodes changed. Pure: encoding, chunking and validation.
+import { z } from 'zod';
+import type { LiveUnitView } from '../lib/context';
+
+export const RELAY_CHANNEL = 'afterwatch_units';
+
+/**
+ * PostgreSQL documentation (NOTIFY): "the payload must be shorter than 8000 bytes" in the default
+ * configuration. Each notification stays a little under it, and stands alone (no reassembly).
+ */
+export const MAX_PAYLOAD_BYTES = 7900;
+
+export interface RelayedUnit {
+  unitId: string;
+  depot: string;
+  /** units.judged_version of the judgement this view comes from: the newer judgement wins. */
+  version: number;
+  view: LiveUnitView;
+  /** Purging only: milliseconds to the purge's end at the message's `at` (finer than the view's whole seconds). */
+  remainingMs: number | null;
+}
+
+export type RelayMessage =
+  /** `units`: judged just now; `snapshot`: an answer to `ask` (everything the sender holds). */
+  | { from: string; kind: 'units' | 'snapshot'; at: number; units: RelayedUnit[]; episodes: string[] }
+  /** A worker that missed notifications (its listening connection was down) asks the others for their views. */
+  | { from: string; kind: 'ask' };
+
+const ms = (iso: string | null) => (iso === null ? null : Date.parse(iso));
+const iso = (t: number | null) => (t === null ? null : new Date(t).toISOString());
+
+type Tuple = [string, string, number, string | null, number | null, number | null, number | null, number | null, number | null, number | null];
+
+const toTuple = (u: RelayedUnit): Tuple => [
+  u.unitId, u.depot, u.version, u.view.state, ms(u.view.stateSince), u.view.purgeRemainingS, u.remainingMs, u.view.lastSupplyV, u.view.lastAmbientC, ms(u.view.lastSeenAt),
+];
+
+const num = z.number().finite().nullable();
+const UnitTupleSchema = z.tuple([
+  z.string().min(1).max(64), z.string().max(500), z.number().int().nonnegative(), z.string().max(40).nullable(),
+  num, z.number().int().nonnegative().nullable(), num, num, num, num,
+]);
+const KIND = { u: 'units', s: 'snapshot', a: 'ask' } as const;
+const WireSchema = z.union([
+  z.object({ f: z.string().min(1).max(80), k: z.enum(['u', 's']), t: z.number().finite(), u: z.array(UnitTupleSchema), e: z.array(z.string().min(1).max(64)) }),
+  z.object({ f: z.string().min(1).max(80), k: z.literal('a') }),
+]);
+
+const bytes = (s: string) => Buffer.byteLength(s, 'utf8');
+
+/** The notifications for a batch of units and episode changes, each under MAX_PAYLOAD_BYTES. */
+export function encodeRelay(from: string, kind: 'units' | 'snapshot', at: number, units: RelayedUnit[], episodes: string[], limit = MAX_PAYLOAD_BYTES): string[] {
+  const k = kind === 'units' ? 'u' : 's';
+  const empty = bytes(JSON.stringify({ f: from, k, t: at, u: [], e: [] }));
+  const out: string[] = [];
+  let u: string[] = [];
+  let e: string[] = [];
+  let size = empty;
+  const cut = () => {
+    if (u.length || e.length) out.push(`{"f":${JSON.stringify(from)},"k":"${k}","t":${JSON.stringify(at)},"u":[${u.join(',')}],"e":[${e.join(',')}]}`);
+    u = [];
+    e = [];
+    size = empty;
+  };
+  const add = (list: 'u' | 'e', item: string) => {
+    const n = bytes(item) + 1; // and its comma
+    if (empty + n > limit) throw new Error(`one relayed item is larger than a notification (${n} bytes)`);
+    if (size + n > limit) cut();
+    (list === 'u' ? u : e).push(item);
+    size += n;
+  };
+  for (const unit of units) add('u', JSON.stringify(toTuple(unit)));
+  for (const id of episodes) add('e', JSON.stringify(id));
+  cut();
+  return out;
+}
+
+export const encodeAsk = (from: string) => JSON.stringify({ f: from, k: 'a' });
+
+/** Reads one notification; throws with the reason if it is not a relay message. */
+export function decodeRelay(payload: string): RelayMessage {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(payload);
+  } catch {
+    throw new Error('relay payload is not JSON');
+  }
+  const parsed = WireSchema.safeParse(raw);
+  if (!parsed.success) throw new Error(`relay payload has the wrong shape: ${parsed.error.issues.map((i) => `${i.path.join('.')} ${i.message}`).join('; ')}`);
+  const w = parsed.data;
+  if (w.k === 'a') return { from: w.f, kind: 'ask' };
+  return {
+    from: w.f,
+    kind: KIND[w.k],
+    at: w.t,
+    episodes: w.e,
+    units: w.u.map(([unitId, depot, version, state, since, purgeRemainingS, remainingMs, lastSupplyV, lastAmbientC, lastSeen]) => ({
+      unitId, depot, version, remainingMs,
+      view: { state, stateSince: iso(since), purgeRemainingS, lastSupplyV, lastAmbientC, lastSeenAt: iso(lastSeen) },
+    })),
+  };
+}
