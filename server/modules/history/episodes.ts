@@ -29,7 +29,12 @@ function where(q: Filters) {
   const w = new Where();
   if (q.depot) w.add('u.depot = ?', q.depot);
   if (q.unitId) w.add('e.unit_id = ?', q.unitId);
-  if (q.driverId) w.add('d.id = ?', q.driverId);
+  if (q.driverId) {
+    w.add('d.id = ?', q.driverId);
+    // Implied by the line above (a driver drives only units they are assigned to), stated so that
+    // the planner can start from that driver's few units instead of every episode in the range.
+    w.add('e.unit_id IN (SELECT a.unit_id FROM driver_assignments a WHERE a.driver_id = ?)', q.driverId);
+  }
   if (q.outcome) w.add('e.outcome = ?', q.outcome);
   if (q.from) w.add('e.key_off_at >= ?', q.from.toISOString());
   if (q.to) w.add('e.key_off_at < ?', q.to.toISOString());
