@@ -9,10 +9,13 @@ import { indicatorFor } from '../../shared/protocol/indicator';
 import type { UnitStateName } from '../../shared/api/units';
 import type { LiveUnitView } from '../lib/context';
 import type { FleetEvents } from '../ingest/fleet-events';
+import type { PeerEvents } from './peer-relay';
 
 export interface LiveFeedDeps {
   http: Server;
   events: FleetEvents;
+  /** Behind an external broker: the units other workers judged (peer-relay.ts), pushed like this worker's own. */
+  peers?: PeerEvents;
   log: Logger;
   /** Resolves a user's token; throws if it is not valid. */
   verifyUser(token: string): Promise<unknown>;
@@ -65,14 +68,18 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     }
   };
 
-  deps.events.on('units', (changes) => {
-    for (const c of changes) pending.add(c.unitId);
+  const unitsChanged = (unitIds: string[]) => {
+    for (const id of unitIds) pending.add(id);
     if (!timer) timer = setTimeout(flush, deps.coalesceMs ?? 25);
-  });
-  deps.events.on('episodes', (changes) => {
-    const msg: ServerMessage = { type: 'episodes', unitIds: [...new Set(changes.map((c) => c.unitId))] };
+  };
+  const episodesChanged = (unitIds: string[]) => {
+    const msg: ServerMessage = { type: 'episodes', unitIds: [...new Set(unitIds)] };
     for (const p of peers) if (p.scope === 'fleet') send(p, msg);
-  });
+  };
+  deps.events.on('units', (changes) => unitsChanged(changes.map((c) => c.unitId)));
+  deps.events.on('episodes', (changes) => episodesChanged(changes.map((c) => c.unitId)));
+  deps.peers?.on('units', unitsChanged);
+  deps.peers?.on('episodes', episodesChanged);
 
   const refuse = (socket: Duplex, status: number, text: string) => {
     socket.write(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Type: text/plain\r\n\r\n${text}\n`);
