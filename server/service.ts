@@ -26,6 +26,7 @@ import { batteryRoutes } from './modules/battery/routes';
 import { recordStatus } from './modules/readings/service';
 import { startIndicators } from './realtime/indicator';
 import { indicatorView, startLiveFeed } from './realtime/live-feed';
+import { startPeerRelay } from './realtime/peer-relay';
 import { verifyToken } from './lib/middleware';
 import { loadActiveUser } from './modules/auth/service';
 import type { AlertView } from '../shared/realtime/envelope';
@@ -85,6 +86,12 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       recordStatus(db.sequelize, gatewayId, unitId, status.state, status.boot ?? null).catch((err) => log.warn({ err, gatewayId }, 'status not recorded'));
     },
   });
+  // Behind an external broker other workers judge units too: their judgements reach this worker's
+  // views and live feed through PostgreSQL (listening before the ingest loads its memory).
+  const relay = config.MQTT_URL
+    ? await startPeerRelay({ databaseUrl: config.DATABASE_URL, workerId: config.INGEST_WORKER_ID, events: ingest.events, book: ingest.book, log: logger('relay'), wallNow: opts.wallNow })
+    : null;
+  const unitView = (unitId: string) => (relay ? relay.view(unitId) : ingest.book.view(unitId));
   await ingest.start();
 
   const broker = await openBrokerLink(config, ingest.accept, logger('broker'));
@@ -98,7 +105,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       { name: 'broker', check: async () => broker.healthy() },
     ],
     fleet: {
-      unit: (id) => ingest.book.view(id),
+      unit: unitView,
       unitChanged: async (id) => {
         await ingest.directory.load();
         await broker.gatewaysChanged();
@@ -129,21 +136,21 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     sequelize: db.sequelize,
     baseUrl: config.FORECAST_URL ?? forecastFake!.url,
     log: logger('forecast'),
-    unitState: (unitId) => ingest.book.view(unitId).state,
+    unitState: (unitId) => unitView(unitId).state,
     publish: publishAlert,
     events: ingest.events,
     pollMs: config.FORECAST_POLL_MINUTES * 60_000,
   });
-  const depotOf = (unitId: string) => ingest.book.peek(unitId)?.profile.depot ?? '';
+  const depotOf = (unitId: string) => (relay ? relay.depotOf(unitId) : ingest.book.peek(unitId)?.profile.depot ?? '');
   const app = createApp(ctx, {
     staticDir: opts.staticDir,
-    publicRoutes: [['/switch', switchPublicRoutes(ctx, (unitId) => indicatorView(ingest.book.view(unitId)))]],
+    publicRoutes: [['/switch', switchPublicRoutes(ctx, (unitId) => indicatorView(unitView(unitId)))]],
     routes: [
       ['/units', readingRoutes(ctx)],
       ['/episodes', episodeRoutes()],
       ['/faults', faultRoutes()],
       ['/alerts', alertRoutes(ctx, publishAlert)],
-      ['/metrics', metricsRoutes(() => ({ worker: config.INGEST_WORKER_ID, ingest: ingest.counters, judgeErrors: ingest.judgeErrors.count, backlog: ingest.backlog, broker: broker.counters, liveClients: feed?.peers() ?? 0 }))],
+      ['/metrics', metricsRoutes(() => ({ worker: config.INGEST_WORKER_ID, ingest: ingest.counters, judgeErrors: ingest.judgeErrors.count, backlog: ingest.backlog, broker: broker.counters, liveClients: feed?.peers() ?? 0, relay: relay ? { connected: relay.connected(), ...relay.counters } : null }))],
       ['/switch-pages', switchAdminRoutes(ctx, (unitId) => feed?.dropSwitch(unitId))],
       ['/work-orders', workOrderRoutes(ctx)],
       ['/roster', rosterRoutes(ctx)],
@@ -160,6 +167,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
   feed = startLiveFeed({
     http,
     events: ingest.events,
+    peers: relay?.peers,
     log: logger('live'),
     verifyUser: async (token) => {
       const user = await loadActiveUser(verifyToken(token, ctx.jwtSecret).id);
@@ -167,7 +175,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       return user;
     },
     switchUnit: (token) => unitOfSwitchToken(db.sequelize, token),
-    view: (unitId) => ingest.book.view(unitId),
+    view: unitView,
     depotOf,
   });
   const alerts = startAlertEngine({ sequelize: db.sequelize, events: ingest.events, log: logger('alerts'), escalateAfterMs: config.ALERT_ESCALATE_MINUTES * 60_000, publish: publishAlert });
@@ -207,6 +215,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       http.closeAllConnections?.();
       await broker.close();
       await ingest.stop();
+      await relay?.close();
       await db.close();
     },
   };
