@@ -12,5 +12,6 @@ import { migration as createDrivers } from './20261202050000-create-drivers';
 import { migration as partitionMessages } from './20261202045000-partition-messages';
 import { migration as plannerDeskB } from './20261202060000-planner-desk-b';
 import { migration as episodesHistoryOrderIndex } from './20261202070000-episodes-history-order-index';
+import { migration as dropRedundantMessageIndex } from './20261202080000-drop-redundant-message-index';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB, episodesHistoryOrderIndex];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB, episodesHistoryOrderIndex, dropRedundantMessageIndex];
