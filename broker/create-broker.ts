@@ -6,6 +6,7 @@ import { createAuthenticate } from './hooks/authenticate';
 import { createAuthorizePublish } from './hooks/authorize-publish';
 import { createAuthorizeSubscribe } from './hooks/authorize-subscribe';
 import type { Accept, BrokerCounters, BrokerEvents, CheckCredential } from './types';
+import { ReadGate } from './read-gate';
 
 export interface BrokerOptions extends BrokerEvents {
   host: string;
@@ -13,12 +14,15 @@ export interface BrokerOptions extends BrokerEvents {
   checkCredential: CheckCredential;
   accept: Accept;
   log: Logger;
+  /** At most this many publishes wait for their commit before the broker stops reading from every connection. */
+  maxUnsettled?: number;
 }
 
 export interface BrokerHandle {
   broker: Aedes;
   port: number;
   counters: BrokerCounters;
+  gate: ReadGate;
   isConnected(gatewayId: string): boolean;
   /** Drops a gateway's connection and its cached credential (after revocation). */
   revoke(gatewayId: string): void;
@@ -27,12 +31,13 @@ export interface BrokerHandle {
 }
 
 export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
-  const counters: BrokerCounters = { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0 };
+  const counters: BrokerCounters = { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0, readPauses: 0 };
   const onRefuse = (id: string, reason: string) => opts.log.warn({ gatewayId: id, reason }, 'broker refused');
   const auth = createAuthenticate(opts.checkCredential, counters, onRefuse);
+  const gate = new ReadGate(opts.maxUnsettled ?? 20_000, () => counters.readPauses++);
   const broker = await Aedes.createBroker({
     authenticate: auth.authenticate as never,
-    authorizePublish: createAuthorizePublish(opts.accept, counters, onRefuse) as never,
+    authorizePublish: createAuthorizePublish(opts.accept, counters, onRefuse, gate) as never,
     authorizeSubscribe: createAuthorizeSubscribe(counters, onRefuse) as never,
     concurrency: 1000,
     queueLimit: 1000,
@@ -44,6 +49,7 @@ export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
   const server: Server = createServer((socket) => {
     socket.setNoDelay(true); // latency matters more than packet count here
     sockets.add(socket);
+    gate.attach(socket);
     socket.on('close', () => sockets.delete(socket));
     broker.handle(socket);
   });
@@ -59,6 +65,7 @@ export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
     broker,
     port,
     counters,
+    gate,
     isConnected: (id) => Boolean(clients()[id]),
     revoke(id) {
       auth.forget(id);

@@ -14,6 +14,8 @@ export interface BrokerCounters {
   oversized: number;
   subscribeRefused: number;
   acceptFailed: number;
+  /** Times the broker stopped reading from every connection because too many publishes were unsettled. */
+  readPauses: number;
 }
 
 export interface BrokerEvents {

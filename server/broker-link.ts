@@ -28,6 +28,7 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
       log,
       checkCredential: async (username, password) => ({ ok: await checkGatewayCredential(username, password) }),
       accept,
+      maxUnsettled: config.INGEST_MAX_BACKLOG,
     });
     return {
       kind: 'embedded',

@@ -4,8 +4,9 @@ import type { Client, PublishPacket } from 'aedes';
 import { MAX_PAYLOAD_BYTES } from '../../shared/protocol/limits';
 import { parseTopic } from '../../shared/protocol/topics';
 import type { Accept, BrokerCounters } from '../types';
+import type { ReadGate } from '../read-gate';
 
-export function createAuthorizePublish(accept: Accept, counters: BrokerCounters, onRefuse: (id: string, reason: string) => void) {
+export function createAuthorizePublish(accept: Accept, counters: BrokerCounters, onRefuse: (id: string, reason: string) => void, gate?: ReadGate) {
   return (client: Client | null, packet: PublishPacket, callback: (err?: Error | null) => void) => {
     if (!client) return callback(null); // the service's own publishes
     if ((client as Client & { isService?: boolean }).isService) return callback(null);
@@ -24,9 +25,14 @@ export function createAuthorizePublish(accept: Accept, counters: BrokerCounters,
       return refuse(`payload of ${payload.length} bytes is over ${MAX_PAYLOAD_BYTES}`);
     }
     if (packet.retain) packet.retain = false; // gateways' messages are events, never retained state
+    gate?.enter();
     accept(client.id, packet.topic, payload).then(
-      () => callback(null),
+      () => {
+        gate?.leave();
+        callback(null);
+      },
       (err: Error) => {
+        gate?.leave();
         // Not committed: no PUBACK. Closing the connection makes the gateway resend it later.
         counters.acceptFailed++;
         onRefuse(client.id, `not committed: ${err.message}`);
