@@ -6,10 +6,14 @@
 // Reading starts again when the count has fallen to half.
 import type { Socket } from 'node:net';
 
+/** Connections woken per turn of the event loop when reading starts again. */
+const WAKE_SLICE = 200;
+
 export class ReadGate {
   private outstanding = 0;
   private closed = false;
   private held = new Set<Socket>();
+  private waking = false;
   /** `onClose` counts the pauses (for the metrics). */
   constructor(private readonly high: number, private readonly onClose: () => void = () => {}, private readonly low = Math.floor(high / 2)) {
     if (!(high > 0) || low >= high) throw new RangeError(`read gate needs 0 <= low < high, got ${low}, ${high}`);
@@ -50,9 +54,27 @@ export class ReadGate {
     this.outstanding--;
     if (!this.closed || this.outstanding > this.low) return;
     this.closed = false;
-    const held = [...this.held];
-    this.held.clear();
-    // Each held reader is told that its data is there: aedes reads on 'readable'.
-    for (const s of held) if (!s.destroyed) s.emit('readable');
+    this.wake();
+  }
+
+  /**
+   * Tells the held readers that their data is there (aedes reads on 'readable'), a slice at a time: all
+   * of them at once would parse thousands of connections' packets in one turn of the event loop and keep
+   * the database's answers (the commits everyone waits for) waiting behind them.
+   */
+  private wake() {
+    let n = 0;
+    for (const s of this.held) {
+      if (this.closed || n++ >= WAKE_SLICE) break;
+      this.held.delete(s);
+      if (!s.destroyed) s.emit('readable');
+    }
+    if (this.held.size && !this.closed && !this.waking) {
+      this.waking = true;
+      setImmediate(() => {
+        this.waking = false;
+        if (!this.closed) this.wake();
+      });
+    }
   }
 }

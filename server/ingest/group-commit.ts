@@ -21,6 +21,7 @@ export class GroupCommit<T> {
   private timer: NodeJS.Timeout | null = null;
   private flushing: Promise<void> | null = null;
   private inFlight = 0;
+  private settling: Promise<void> = Promise.resolve();
   private roomWaiters: { limit: number; resolve(): void }[] = [];
 
   constructor(private opts: GroupCommitOptions<T>) {}
@@ -54,6 +55,7 @@ export class GroupCommit<T> {
       await this.flushing;
       this.cut();
     }
+    await this.settling;
   }
 
   private cut() {
@@ -65,22 +67,38 @@ export class GroupCommit<T> {
     const batch = this.current.splice(0, this.opts.maxItems);
     this.inFlight = batch.length;
     this.flushing = (async () => {
+      let settle: (p: Pending<T>, i: number) => void;
       try {
         const outcome = await this.opts.flush(batch.map((p) => p.item));
-        batch.forEach((p, i) => {
-          const err = outcome?.[i];
-          if (err) p.reject(err);
-          else p.resolve();
-        });
+        settle = (p, i) => (outcome?.[i] ? p.reject(outcome[i]!) : p.resolve());
       } catch (err) {
-        for (const p of batch) p.reject(err as Error);
-      } finally {
-        this.inFlight = 0;
-        this.flushing = null;
-        this.roomWaiters = this.roomWaiters.filter((w) => (this.backlog < w.limit ? (w.resolve(), false) : true));
-        // What arrived during the write goes next, at once.
-        if (this.current.length) this.cut();
+        settle = (p) => p.reject(err as Error);
       }
+      this.inFlight = 0;
+      this.flushing = null;
+      this.roomWaiters = this.roomWaiters.filter((w) => (this.backlog < w.limit ? (w.resolve(), false) : true));
+      // What arrived during the write goes next, at once; then the callers hear of this batch.
+      if (this.current.length) this.cut();
+      this.settling = settleInSlices(batch, settle);
     })();
   }
+}
+
+/** Callers' continuations (a PUBACK, the next packets read from that connection) per turn of the event loop. */
+const SETTLE_SLICE = 250;
+
+/**
+ * Settles a batch's callers in order, a slice per turn of the event loop: a few thousand continuations in
+ * one turn would hold the database's answers for the next batch (its BEGIN, its insert) up behind them.
+ */
+function settleInSlices<P>(batch: P[], settle: (p: P, i: number) => void): Promise<void> {
+  return new Promise((done) => {
+    const slice = (from: number) => {
+      const to = Math.min(batch.length, from + SETTLE_SLICE);
+      for (let i = from; i < to; i++) settle(batch[i], i);
+      if (to < batch.length) setImmediate(slice, to);
+      else done();
+    };
+    slice(0);
+  });
 }
