@@ -1,6 +1,7 @@
 // `npm run bench [-- --quick] [--runs N]`: the product against the bare pipeline on this machine, with its
 // own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
-// `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data).
+// `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data);
+// `--only weekend` the weekend replay alone, `--runs N` times.
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -41,8 +42,24 @@ async function historyOnly(adminUrl: string) {
   }
 }
 
+/** The weekend replay alone, `runs` times. */
+async function weekendOnly(adminUrl: string) {
+  const walls: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    say(`weekend replay ${r + 1}: ${P.weekendUnits} units`);
+    const w = await weekendReplay(adminUrl, P.weekendUnits);
+    say(w.summary);
+    walls.push(w.wallS);
+  }
+  process.stdout.write(`weekend replay   ${P.weekendUnits} units, Fri 15:00 to Mon 08:00: ${fmt(stats(walls), ' s', 1)} wall time (target < 60 s)\n`);
+  mkdirSync('bench-results', { recursive: true });
+  const file = join('bench-results', `bench-weekend-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'weekend', params: P, weekend: { units: P.weekendUnits, wallS: walls } }, null, 2));
+  process.stdout.write(`results written to ${file}\n`);
+}
+
 async function main() {
-  if (only !== null && only !== 'history') throw new Error(`--only knows one step: history (got ${only})`);
+  if (only !== null && only !== 'history' && only !== 'weekend') throw new Error(`--only knows two steps: history, weekend (got ${only})`);
   const dir = mkdtempSync(join(tmpdir(), 'afterwatch-bench-pg-'));
   say(`afterwatch bench: ${quick ? 'quick' : 'full'}, ${runs} run(s)`);
   const pg = await startLocalPostgres({ dataDir: dir, database: 'postgres' });
@@ -50,6 +67,7 @@ async function main() {
   const out: Record<string, unknown> = { at: new Date().toISOString(), quick, runs, params: P };
   try {
     if (only === 'history') return await historyOnly(adminUrl);
+    if (only === 'weekend') return await weekendOnly(adminUrl);
     const bareRuns: ThroughputFigures[] = [];
     const prodRuns: ThroughputFigures[] = [];
     for (let r = 0; r < runs; r++) {
