@@ -73,9 +73,11 @@ export function createIngest(opts: IngestOptions) {
       const byUnit = new Map<string, MessageItem[]>();
       const seen = new Set<string>();
       for (const m of messages) {
-        const k = messageKey(m);
-        if (!fresh.has(k) || seen.has(k)) continue; // a duplicate: the first accepted copy already won
-        seen.add(k);
+        if (!fresh.all) {
+          const k = messageKey(m);
+          if (!fresh.keys.has(k) || seen.has(k)) continue; // a duplicate: the first accepted copy already won
+          seen.add(k);
+        }
         const list = byUnit.get(m.unitId) ?? [];
         list.push(m);
         byUnit.set(m.unitId, list);

@@ -6,25 +6,37 @@ import type { MessageItem, QuarantineItem } from './items';
 const key = (gatewayId: string, boot: number, seq: number) => `${gatewayId}|${boot}|${seq}`;
 export const messageKey = (m: { gatewayId: string; boot: number; seq: number }) => key(m.gatewayId, m.boot, m.seq);
 
+/** Which of a batch's messages were new: all of them (the usual case), or those whose keys are listed. */
+export type FreshMessages = { all: true; size: number } | { all: false; size: number; keys: Set<string> };
+
 /**
- * Inserts the batch's messages; returns the keys of those that were new (the rest were duplicates).
- * The rows go as one JSON document that PostgreSQL unpacks (jsonb_to_recordset): far less work in
- * Node than binding arrays, whose elements pg escapes one by one.
+ * Inserts the batch's messages and tells which were new (the rest were duplicates, recognised by the
+ * primary key). The rows go as one JSON document that PostgreSQL unpacks (jsonb_to_recordset): far less
+ * work in Node than binding arrays, whose elements pg escapes one by one. When every row went in (the
+ * row count says so) nothing more is asked; otherwise the rows this transaction wrote (xmin) are listed.
  */
-export async function insertMessages(sequelize: Sequelize, t: Transaction, items: MessageItem[]): Promise<Set<string>> {
-  if (items.length === 0) return new Set();
+export async function insertMessages(sequelize: Sequelize, t: Transaction, items: MessageItem[]): Promise<FreshMessages> {
+  if (items.length === 0) return { all: true, size: 0 };
   const rows = items.map((m) => ({ g: m.gatewayId, b: m.boot, s: m.seq, u: m.unitId, st: m.stream, k: m.kind, ts: m.payload.ts, p: m.payload, r: m.receivedAt }));
   // Straight through the transaction's own pg connection: Sequelize's result handling costs more than the insert.
-  const connection = (t as unknown as { connection: { query(text: string, values: unknown[]): Promise<{ rows: { k: string }[] }> } }).connection;
+  const connection = (t as unknown as { connection: { query(text: string, values: unknown[]): Promise<{ rowCount: number | null; rows: { k: string }[] }> } }).connection;
+  const doc = JSON.stringify(rows);
   const out = await connection.query(
     `INSERT INTO messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at)
      SELECT g, b, s, u, st, k, ts, p, to_timestamp(r / 1000.0)
      FROM jsonb_to_recordset($1::jsonb) AS x(g text, b bigint, s bigint, u text, st int, k text, ts timestamptz, p jsonb, r float8)
-     ON CONFLICT DO NOTHING
-     RETURNING gateway_id || '|' || boot || '|' || seq AS k`,
-    [JSON.stringify(rows)],
+     ON CONFLICT DO NOTHING`,
+    [doc],
   );
-  return new Set(out.rows.map((r) => r.k));
+  if (out.rowCount === items.length) return { all: true, size: items.length };
+  const written = await connection.query(
+    `SELECT m.gateway_id || '|' || m.boot || '|' || m.seq AS k FROM messages m
+     JOIN jsonb_to_recordset($1::jsonb) AS x(g text, b bigint, s bigint, ts timestamptz) ON (m.gateway_id, m.boot, m.seq, m.ts) = (x.g, x.b, x.s, x.ts)
+     WHERE m.xmin = pg_current_xact_id()::xid`,
+    [doc],
+  );
+  const keys = new Set(written.rows.map((r) => r.k));
+  return { all: false, size: keys.size, keys };
 }
 
 // PostgreSQL text cannot hold NUL; a hostile payload (or a parser's message quoting it) may carry one.

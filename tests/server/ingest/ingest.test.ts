@@ -83,6 +83,28 @@ describe('ingest and judgement through the real broker', () => {
     await gw.end();
   });
 
+  it('in one burst, new messages, copies of each other and copies of stored ones: each new one counted and judged once', async () => {
+    const gw = await gatewayFor('IN-3B');
+    const m = new MessageSeq(1);
+    const t0 = Date.now() - 60_000;
+    const on = m.telemetry(t0, 'on', 13.8);
+    await gw.publish('telemetry', on);
+    const acc0 = t.service.ingest.counters.accepted;
+    const dup0 = t.service.ingest.counters.duplicates;
+    const off = m.telemetry(t0 + 2_000, 'off', 12.6);
+    const later = m.telemetry(t0 + 2_000 + 60_000, 'off', 12.5, { ecmAwake: false });
+    // Sent together, so that they share a batch: 2 new, 3 copies (of `on`, stored before, and of the new ones).
+    await Promise.all([off, on, off, later, later].map((msg) => gw.publish('telemetry', msg)));
+    expect(t.service.ingest.counters.accepted - acc0).toBe(2);
+    expect(t.service.ingest.counters.duplicates - dup0).toBe(3);
+    const [n] = await t.service.ctx.sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM messages WHERE gateway_id = 'gw-IN-3B'`, { type: QueryTypes.SELECT });
+    expect(Number(n.n)).toBe(3);
+    const episodes = await get('/api/episodes?unitId=IN-3B');
+    expect(episodes).toHaveLength(1);
+    expect(episodes[0]).toMatchObject({ outcome: 'completed', settledBy: 'ecmAsleep' });
+    await gw.end();
+  });
+
   it('a silent purge is settled by the next boot\'s record, and the fault at the next key-on is linked to it', async () => {
     const gw = await gatewayFor('IN-4');
     const m = new MessageSeq(7);
