@@ -10,8 +10,23 @@ export interface ParsedTopic {
   kind: UplinkKind | 'indicator';
 }
 
-/** Splits `afterwatch/v1/gw/{id}/{kind}`; null for anything else. */
-export function parseTopic(topic: string): ParsedTopic | null {
+/** Recently parsed good topics: every message names one of a few topics per gateway, and is parsed twice (broker, ingest). */
+const parsed = new Map<string, Readonly<ParsedTopic>>();
+const PARSED_MAX = 100_000;
+
+/** Splits `afterwatch/v1/gw/{id}/{kind}`; null for anything else. The result is shared: do not change it. */
+export function parseTopic(topic: string): Readonly<ParsedTopic> | null {
+  const known = parsed.get(topic);
+  if (known) return known;
+  const p = splitTopic(topic);
+  if (p) {
+    if (parsed.size >= PARSED_MAX) parsed.clear();
+    parsed.set(topic, p);
+  }
+  return p;
+}
+
+function splitTopic(topic: string): ParsedTopic | null {
   const prefix = `${TOPIC_ROOT}/`;
   if (!topic.startsWith(prefix)) return null;
   const rest = topic.slice(prefix.length).split('/');
