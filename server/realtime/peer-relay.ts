@@ -1,7 +1,8 @@
 // Behind an external broker several workers judge the fleet, each only some units' messages. This relay
 // tells the other workers what this one judged (PostgreSQL LISTEN/NOTIFY on one channel, through one
 // dedicated connection that comes back after a database restart), and answers this worker's views from
-// whichever judgement of a unit is the newer: its own memory or the latest one relayed to it.
+// whichever judgement of a unit is the newer: its own memory or the latest one relayed to it. The alerts
+// this worker's live feed pushes go the same way, to the other workers' live feeds.
 import { EventEmitter } from 'node:events';
 import { randomBytes } from 'node:crypto';
 import pg from 'pg';
@@ -9,11 +10,17 @@ import type { Logger } from 'pino';
 import type { LiveUnitView } from '../lib/context';
 import type { FleetEvents } from '../ingest/fleet-events';
 import type { UnitBook } from '../ingest/unit-book';
-import { RELAY_CHANNEL, decodeRelay, encodeAsk, encodeRelay, type RelayMessage, type RelayedUnit } from './peer-wire';
+import type { AlertView } from '../../shared/realtime/envelope';
+import { RELAY_CHANNEL, alertStage, decodeRelay, encodeAlerts, encodeAsk, encodeRelay, type RelayMessage, type RelayedUnit } from './peer-wire';
 
-/** Units whose view (and units whose episodes) another worker changed: for this worker's live feed. */
+/** What other workers changed, for this worker's live feed. */
 export interface PeerEvents {
+  /** Units whose view (or whose episodes) another worker changed. */
   on(event: 'units' | 'episodes', listener: (unitIds: string[]) => void): this;
+  /** An alert another worker pushed on its live feed, in a state this worker's feed has not pushed yet. */
+  on(event: 'alert', listener: (alert: AlertView) => void): this;
+  /** The relay was deaf for a while: alerts (in the database) may have changed unheard, so clients should re-read. */
+  on(event: 'resync', listener: () => void): this;
 }
 
 export interface PeerRelayDeps {
@@ -22,6 +29,8 @@ export interface PeerRelayDeps {
   events: FleetEvents;
   /** The ingest's memory, read only. */
   book: Pick<UnitBook, 'peek' | 'view' | 'unitIds' | 'clock'>;
+  /** Reads an alert from the database, for one relayed by id (too large for a notification). */
+  loadAlert(id: number): Promise<AlertView>;
   log: Logger;
   wallNow?: () => number;
   /** First pause before reconnecting the listening connection; it doubles up to 5 s (common practice, no published source). */
@@ -44,17 +53,32 @@ interface Outgoing extends RelayedUnit {
  */
 const MAX_TRANSIT_MS = 2000;
 
+/**
+ * How many alerts' last stage a worker remembers, to drop a relayed state it already pushed (or a later one
+ * already overtook). Far more alerts than a fleet raises while a notification can be late; an alert
+ * forgotten past it is only re-checked less. Common practice, no published source.
+ */
+const MAX_KNOWN_ALERTS = 20_000;
+
 export async function startPeerRelay(deps: PeerRelayDeps) {
   const { log, book } = deps;
   const now = deps.wallNow ?? Date.now;
   // The worker id tags the messages; the suffix tells this process from a restarted one of the same id.
   const self = `${deps.workerId}#${randomBytes(4).toString('hex')}`;
   const feed = new EventEmitter() as EventEmitter & PeerEvents;
-  const counters = { connects: 0, notificationsSent: 0, unitsSent: 0, notificationsReceived: 0, unitsAccepted: 0, unitsOlder: 0, invalid: 0, sendErrors: 0, asksSent: 0, asksAnswered: 0, unitsFromSnapshots: 0 };
+  const counters = {
+    connects: 0, notificationsSent: 0, unitsSent: 0, notificationsReceived: 0, unitsAccepted: 0, unitsOlder: 0, invalid: 0, sendErrors: 0, asksSent: 0, asksAnswered: 0, unitsFromSnapshots: 0,
+    alertsSent: 0, alertsAccepted: 0, alertsOlder: 0, alertsLoaded: 0, alertLoadErrors: 0, resyncs: 0,
+  };
 
   const relayed = new Map<string, Held>();
   const outbox = new Map<string, Outgoing>();
   const outEpisodes = new Set<string>();
+  /** Alerts this worker published, in order, not yet sent. */
+  let outAlerts: AlertView[] = [];
+  /** Alert id -> the furthest stage this worker's live feed pushed (its own alerts and relayed ones), oldest first. */
+  const known = new Map<number, number>();
+  let alertChain = Promise.resolve();
   let ask = false;
   let client: pg.Client | null = null;
   let sending = false;
@@ -96,7 +120,7 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
 
   function schedule() {
     if (scheduled || sending || !client || closed) return;
-    if (!outbox.size && !outEpisodes.size && !ask) return;
+    if (!outbox.size && !outEpisodes.size && !outAlerts.length && !ask) return;
     scheduled = true;
     setImmediate(() => {
       scheduled = false;
@@ -111,9 +135,11 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     sending = true;
     const units = [...outbox.values()];
     const episodes = [...outEpisodes];
+    const alerts = outAlerts;
     const asking = ask;
     outbox.clear();
     outEpisodes.clear();
+    outAlerts = [];
     ask = false;
     const at = now();
     // Remaining times are restated at the message's own time, so one `at` serves every unit in it.
@@ -123,16 +149,20 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
         ...(asking ? [encodeAsk(self)] : []),
         ...encodeRelay(self, 'units', at, units.filter((o) => !o.snapshot).map(restate), episodes),
         ...encodeRelay(self, 'snapshot', at, units.filter((o) => o.snapshot).map(restate), []),
+        // After the units: a board hears of the episode before the alert about it, as from its own worker.
+        ...encodeAlerts(self, alerts),
       ];
       await c.query('SELECT pg_notify($1, p) FROM unnest($2::text[]) AS p', [RELAY_CHANNEL, payloads]);
       counters.notificationsSent += payloads.length;
       counters.unitsSent += units.length;
+      counters.alertsSent += alerts.length;
       if (asking) counters.asksSent++;
     } catch (err) {
       counters.sendErrors++;
-      log.warn({ err: (err as Error).message, units: units.length }, 'relay not sent; kept for the next connection');
+      log.warn({ err: (err as Error).message, units: units.length, alerts: alerts.length }, 'relay not sent; kept for the next connection');
       for (const o of units) if (!outbox.has(o.unitId)) outbox.set(o.unitId, o);
       for (const id of episodes) outEpisodes.add(id);
+      outAlerts = [...alerts, ...outAlerts];
       ask ||= asking;
       // Not at once: a refusal that is not a lost connection would otherwise repeat in a tight loop.
       setTimeout(() => {
@@ -157,9 +187,45 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     schedule();
   }
 
+  /** Notes the stage of an alert this worker's feed pushes; false if it pushed this stage or a later one already. */
+  function advance(a: AlertView): boolean {
+    const stage = alertStage(a);
+    const was = known.get(a.id);
+    if (was !== undefined && was >= stage) return false;
+    known.delete(a.id); // to the newest end
+    known.set(a.id, stage);
+    if (known.size > MAX_KNOWN_ALERTS) known.delete(known.keys().next().value!);
+    return true;
+  }
+
+  function receiveAlerts(alerts: AlertView[], refs: number[]) {
+    const show = (a: AlertView) => {
+      if (!advance(a)) return void counters.alertsOlder++;
+      counters.alertsAccepted++;
+      feed.emit('alert', a);
+    };
+    // One notification after the other, so that an alert read back from the database never overtakes a later state.
+    alertChain = alertChain.then(async () => {
+      for (const a of alerts) show(a);
+      for (const id of refs) {
+        let a: AlertView;
+        try {
+          a = await deps.loadAlert(id);
+        } catch (err) {
+          counters.alertLoadErrors++;
+          log.warn({ err: (err as Error).message, alertId: id }, 'relayed alert not read; boards see it when they next load the alerts');
+          continue;
+        }
+        counters.alertsLoaded++;
+        show(a);
+      }
+    });
+  }
+
   function receive(msg: RelayMessage) {
     if (msg.from === self) return;
     if (msg.kind === 'ask') return answerAsk();
+    if (msg.kind === 'alerts') return receiveAlerts(msg.alerts, msg.refs);
     const received = now();
     const base = Math.min(received, Math.max(msg.at, received - MAX_TRANSIT_MS));
     const changed: string[] = [];
@@ -230,7 +296,12 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     client = c;
     attempt = 0;
     counters.connects++;
-    if (afterGap) ask = true;
+    if (afterGap) {
+      ask = true;
+      // Units come back in the others' answers; alerts they do not hold, but their rows are in the database.
+      counters.resyncs++;
+      feed.emit('resync');
+    }
     schedule();
     return true;
   }
@@ -267,6 +338,13 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     peers: feed as PeerEvents,
     counters,
     connected: () => client !== null,
+    /** An alert this worker's live feed pushed: to the other workers' feeds. */
+    relayAlert(alert: AlertView) {
+      if (closed) return;
+      advance(alert);
+      outAlerts.push(alert);
+      schedule();
+    },
     view(unitId: string): LiveUnitView {
       const h = newer(unitId);
       return h ? presentHeld(h) : book.view(unitId);

@@ -1,7 +1,9 @@
 // What one worker tells the others over PostgreSQL NOTIFY: the units it judged (their views, ordered by
-// units.judged_version) and the units whose episodes changed. Pure: encoding, chunking and validation.
+// units.judged_version), the units whose episodes changed, and the alerts it published on its live feed.
+// Pure: encoding, chunking and validation.
 import { z } from 'zod';
 import type { LiveUnitView } from '../lib/context';
+import { AlertViewSchema, type AlertView } from '../../shared/realtime/envelope';
 
 export const RELAY_CHANNEL = 'afterwatch_units';
 
@@ -25,7 +27,12 @@ export type RelayMessage =
   /** `units`: judged just now; `snapshot`: an answer to `ask` (everything the sender holds). */
   | { from: string; kind: 'units' | 'snapshot'; at: number; units: RelayedUnit[]; episodes: string[] }
   /** A worker that missed notifications (its listening connection was down) asks the others for their views. */
-  | { from: string; kind: 'ask' };
+  | { from: string; kind: 'ask' }
+  /**
+   * Alerts as the sender's live feed pushed them (raised, escalated, acknowledged, resolved), in order; `refs`:
+   * alerts too large for a notification (a long comment), to be read from the database by id.
+   */
+  | { from: string; kind: 'alerts'; alerts: AlertView[]; refs: number[] };
 
 const ms = (iso: string | null) => (iso === null ? null : Date.parse(iso));
 const iso = (t: number | null) => (t === null ? null : new Date(t).toISOString());
@@ -42,9 +49,12 @@ const UnitTupleSchema = z.tuple([
   num, z.number().int().nonnegative().nullable(), num, num, num, num,
 ]);
 const KIND = { u: 'units', s: 'snapshot', a: 'ask' } as const;
+const From = z.string().min(1).max(80);
 const WireSchema = z.union([
-  z.object({ f: z.string().min(1).max(80), k: z.enum(['u', 's']), t: z.number().finite(), u: z.array(UnitTupleSchema), e: z.array(z.string().min(1).max(64)) }),
-  z.object({ f: z.string().min(1).max(80), k: z.literal('a') }),
+  z.object({ f: From, k: z.enum(['u', 's']), t: z.number().finite(), u: z.array(UnitTupleSchema), e: z.array(z.string().min(1).max(64)) }),
+  z.object({ f: From, k: z.literal('a') }),
+  // The live feed's own alert schema: what a board receives is checked the same on every worker.
+  z.object({ f: From, k: z.literal('al'), a: z.array(AlertViewSchema), r: z.array(z.number().int().positive()) }),
 ]);
 
 const bytes = (s: string) => Buffer.byteLength(s, 'utf8');
@@ -78,6 +88,44 @@ export function encodeRelay(from: string, kind: 'units' | 'snapshot', at: number
 
 export const encodeAsk = (from: string) => JSON.stringify({ f: from, k: 'a' });
 
+/** The notifications for alerts in the order they were published, each under MAX_PAYLOAD_BYTES; one too large goes by its id. */
+export function encodeAlerts(from: string, alerts: AlertView[], limit = MAX_PAYLOAD_BYTES): string[] {
+  const empty = bytes(JSON.stringify({ f: from, k: 'al', a: [], r: [] }));
+  const out: string[] = [];
+  let a: string[] = [];
+  let r: string[] = [];
+  let size = empty;
+  const cut = () => {
+    if (a.length || r.length) out.push(`{"f":${JSON.stringify(from)},"k":"al","a":[${a.join(',')}],"r":[${r.join(',')}]}`);
+    a = [];
+    r = [];
+    size = empty;
+  };
+  const add = (list: 'a' | 'r', item: string) => {
+    const n = bytes(item) + 1; // and its comma
+    if (size + n > limit) cut();
+    (list === 'a' ? a : r).push(item);
+    size += n;
+  };
+  for (const alert of alerts) {
+    const item = JSON.stringify(alert);
+    // A reference is read back after the inline alerts of its notification; the rank check on receipt keeps the order.
+    if (empty + bytes(item) + 1 > limit) add('r', String(alert.id));
+    else add('a', item);
+  }
+  cut();
+  return out;
+}
+
+/**
+ * How far along its life an alert is: open, acknowledged, resolved, each after its escalation. An alert only
+ * moves forward (an acknowledged or resolved one is never escalated or reopened), so a relayed state at or
+ * below the one already shown is a repeat or arrived late.
+ */
+export function alertStage(a: Pick<AlertView, 'status' | 'escalatedAt'>): number {
+  return { open: 0, acknowledged: 2, resolved: 4 }[a.status] + (a.escalatedAt === null ? 0 : 1);
+}
+
 /** Reads one notification; throws with the reason if it is not a relay message. */
 export function decodeRelay(payload: string): RelayMessage {
   let raw: unknown;
@@ -90,6 +138,7 @@ export function decodeRelay(payload: string): RelayMessage {
   if (!parsed.success) throw new Error(`relay payload has the wrong shape: ${parsed.error.issues.map((i) => `${i.path.join('.')} ${i.message}`).join('; ')}`);
   const w = parsed.data;
   if (w.k === 'a') return { from: w.f, kind: 'ask' };
+  if (w.k === 'al') return { from: w.f, kind: 'alerts', alerts: w.a, refs: w.r };
   return {
     from: w.f,
     kind: KIND[w.k],
