@@ -14,7 +14,7 @@ import type { PeerEvents } from './peer-relay';
 export interface LiveFeedDeps {
   http: Server;
   events: FleetEvents;
-  /** Behind an external broker: the units other workers judged (peer-relay.ts), pushed like this worker's own. */
+  /** Behind an external broker: the units other workers judged and the alerts they pushed (peer-relay.ts), pushed like this worker's own. */
   peers?: PeerEvents;
   log: Logger;
   /** Resolves a user's token; throws if it is not valid. */
@@ -80,6 +80,14 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   deps.events.on('episodes', (changes) => episodesChanged(changes.map((c) => c.unitId)));
   deps.peers?.on('units', unitsChanged);
   deps.peers?.on('episodes', episodesChanged);
+  deps.peers?.on('alert', (alert) => {
+    const msg: ServerMessage = { type: 'alert', alert };
+    for (const p of peers) if (p.scope === 'fleet') send(p, msg);
+  });
+  // The relay missed notifications: a fresh hello makes each board re-read, as after its own reconnect.
+  deps.peers?.on('resync', () => {
+    for (const p of peers) if (p.scope === 'fleet') sendHello(p);
+  });
 
   const refuse = (socket: Duplex, status: number, text: string) => {
     socket.write(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Type: text/plain\r\n\r\n${text}\n`);
