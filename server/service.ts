@@ -15,6 +15,7 @@ import { episodeRoutes } from './modules/episodes/routes';
 import { faultRoutes } from './modules/faults/routes';
 import { alertRoutes } from './modules/alerts/routes';
 import { startAlertEngine } from './modules/alerts/engine';
+import { getAlert } from './modules/alerts/service';
 import { switchAdminRoutes, switchPublicRoutes } from './modules/switch/routes';
 import { unitOfSwitchToken } from './modules/switch/service';
 import { readingRoutes } from './modules/readings/routes';
@@ -89,7 +90,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
   // Behind an external broker other workers judge units too: their judgements reach this worker's
   // views and live feed through PostgreSQL (listening before the ingest loads its memory).
   const relay = config.MQTT_URL
-    ? await startPeerRelay({ databaseUrl: config.DATABASE_URL, workerId: config.INGEST_WORKER_ID, events: ingest.events, book: ingest.book, log: logger('relay'), wallNow: opts.wallNow })
+    ? await startPeerRelay({ databaseUrl: config.DATABASE_URL, workerId: config.INGEST_WORKER_ID, events: ingest.events, book: ingest.book, loadAlert: (id) => getAlert(db.sequelize, id), log: logger('relay'), wallNow: opts.wallNow })
     : null;
   const unitView = (unitId: string) => (relay ? relay.view(unitId) : ingest.book.view(unitId));
   await ingest.start();
@@ -131,6 +132,8 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
   // E-mail (the local SMTP fake unless SMTP_URL is set) hears every published alert.
   const mail = await startMail({ config, sequelize: db.sequelize, log: logger('mail') });
   alertHooks.push((a) => mail.onAlert(a));
+  // Behind an external broker the other workers' boards hear this worker's alerts too (not their mail: sent once, here).
+  if (relay) alertHooks.push((a) => relay.relayAlert(a));
   const forecastFake = config.FORECAST_URL ? null : await startForecastFake({ host: '127.0.0.1', port: config.FORECAST_FAKE_PORT });
   const forecast = startForecastPoller({
     sequelize: db.sequelize,
