@@ -60,6 +60,12 @@ const MAX_TRANSIT_MS = 2000;
  */
 const MAX_KNOWN_ALERTS = 20_000;
 
+/**
+ * After a gap, how long the listening connection must hold before the boards are told to re-read, so that a
+ * flapping connection does not make every board reload at each reconnect. Common practice, no published source.
+ */
+const RESYNC_AFTER_MS = 1000;
+
 export async function startPeerRelay(deps: PeerRelayDeps) {
   const { log, book } = deps;
   const now = deps.wallNow ?? Date.now;
@@ -85,6 +91,7 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
   let scheduled = false;
   let closed = false;
   let retryTimer: NodeJS.Timeout | null = null;
+  let resyncTimer: NodeJS.Timeout | null = null;
   let attempt = 0;
 
   /** Milliseconds to the purge's end, read from the judging worker's memory; its view's whole seconds stay the reference. */
@@ -298,12 +305,22 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     counters.connects++;
     if (afterGap) {
       ask = true;
-      // Units come back in the others' answers; alerts they do not hold, but their rows are in the database.
-      counters.resyncs++;
-      feed.emit('resync');
+      resyncSoon();
     }
     schedule();
     return true;
+  }
+
+  /** Units come back in the others' answers; alerts they do not hold, but their rows are in the database. */
+  function resyncSoon() {
+    if (resyncTimer) clearTimeout(resyncTimer);
+    resyncTimer = setTimeout(() => {
+      resyncTimer = null;
+      if (!client || closed) return; // lost again: the next connection tells them
+      counters.resyncs++;
+      feed.emit('resync');
+    }, RESYNC_AFTER_MS);
+    resyncTimer.unref();
   }
 
   function retryLater() {
@@ -355,6 +372,7 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     async close() {
       closed = true;
       if (retryTimer) clearTimeout(retryTimer);
+      if (resyncTimer) clearTimeout(resyncTimer);
       const c = client;
       client = null;
       await c?.end().catch(() => {});
