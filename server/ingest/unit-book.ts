@@ -39,14 +39,16 @@ export class UnitBook {
 
   /** Recomputes the fleet's clock; called by the ingest's ticker. */
   updateFleetClock(wall: number) {
-    const clocks: number[] = [];
-    for (const m of this.units.values()) if (m.lastTs !== null) clocks.push(unitNow(m, wall));
-    if (clocks.length < 3) {
+    // A typed array sorts numbers natively (four times a second over every unit: no comparator calls).
+    const clocks = new Float64Array(this.units.size);
+    let n = 0;
+    for (const m of this.units.values()) if (m.lastTs !== null) clocks[n++] = unitNow(m, wall);
+    if (n < 3) {
       this.fleetNow = null;
       return;
     }
-    clocks.sort((a, b) => a - b);
-    this.fleetNow = clocks[Math.floor(clocks.length / 2)];
+    const known = clocks.subarray(0, n).sort();
+    this.fleetNow = known[Math.floor(n / 2)];
     this.fleetAt = wall;
   }
 
