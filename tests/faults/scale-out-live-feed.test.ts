@@ -1,5 +1,5 @@
 // Behind Mosquitto with two ingest workers, a board connected to one worker sees every unit change
-// state, whichever worker judged it: the workers relay their judgements through PostgreSQL.
+// state and every alert, whichever worker judged it or handled it: the workers relay them through PostgreSQL.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
@@ -18,7 +18,7 @@ import { freePort } from '../../scripts/lib/local-postgres';
 import { mosquittoConf } from '../../server/modules/gateways/mosquitto-files';
 import { indicatorTopic } from '../../shared/protocol/topics';
 import { IndicatorSchema } from '../../shared/protocol/messages';
-import type { ServerMessage, UnitDelta } from '../../shared/realtime/envelope';
+import type { AlertView, ServerMessage, UnitDelta } from '../../shared/realtime/envelope';
 
 const MOSQUITTO = '/usr/sbin/mosquitto';
 const PURGE_S = 120;
@@ -59,7 +59,7 @@ afterAll(async () => {
 });
 
 const get = async (k: Worker, path: string) => (await request(w[k].url).get(path).set('Authorization', `Bearer ${tokens[k]}`)).body;
-interface Metrics { ingest: { accepted: number }; relay: { connected: boolean; connects: number; unitsAccepted: number; asksSent: number; asksAnswered: number } }
+interface Metrics { ingest: { accepted: number }; relay: { connected: boolean; connects: number; unitsAccepted: number; asksSent: number; asksAnswered: number; alertsAccepted: number; resyncs: number } }
 const metrics = (k: Worker): Promise<Metrics> => get(k, '/api/metrics');
 const board = async (k: Worker) => {
   const b = await openLive(`${w[k].url.replace('http', 'ws')}/api/live?token=${tokens[k]}`);
@@ -77,9 +77,9 @@ async function gateway(unitId: string): Promise<TestGateway> {
 }
 
 /** Publishes one message and tells which worker committed it (messages are published one at a time). */
-async function publishTo(gw: TestGateway, msg: object): Promise<Worker> {
+async function publishTo(gw: TestGateway, msg: object, kind: 'telemetry' | 'power' = 'telemetry'): Promise<Worker> {
   const [a, b] = await Promise.all([metrics('w1'), metrics('w2')]);
-  await gw.publish('telemetry', msg);
+  await gw.publish(kind, msg);
   return until(async () => {
     const [a2, b2] = await Promise.all([metrics('w1'), metrics('w2')]);
     return a2.ingest.accepted > a.ingest.accepted ? 'w1' : b2.ingest.accepted > b.ingest.accepted ? ('w2' as const) : null;
@@ -97,6 +97,24 @@ async function keyOffJudgedByW2(gw: TestGateway, m: MessageSeq, before?: () => v
   }
   throw new Error('worker 2 never judged a key-off');
 }
+
+/** A cold purge interrupted 12 s in, with units provisioned until worker 2 is the one that judges the supply loss. */
+async function interruptionJudgedByW2(): Promise<{ gw: TestGateway; unitId: string }> {
+  for (let attempt = 0; attempt < 12; attempt++) {
+    const unitId = `RA-${attempt}`;
+    const gw = await gateway(unitId);
+    const m = new MessageSeq(1);
+    const t0 = Date.now() - 60_000;
+    await publishTo(gw, m.telemetry(t0, 'on', 13.9, { ambientC: -14 }));
+    await publishTo(gw, m.telemetry(t0 + 1000, 'off', 12.6, { ambientC: -14 }));
+    if ((await publishTo(gw, m.power(t0 + 13_000, 'supply-lost', 1.2), 'power')) === 'w2') return { gw, unitId };
+    await gw.end();
+  }
+  throw new Error('worker 2 never judged a supply loss');
+}
+
+const alertsOf = (b: LiveClient, unitId: string): AlertView[] => b.messages.flatMap((x) => (x.type === 'alert' && x.alert.unitId === unitId ? [x.alert] : []));
+const post = (k: Worker, path: string, body: object) => request(w[k].url).post(path).set('Authorization', `Bearer ${tokens[k]}`).send(body);
 
 describe('behind Mosquitto, the live feed and the views of one worker', () => {
   it('show a key-off judged by the other worker: board, units API with its countdown, switch page, episodes notice; the light is published once', async () => {
@@ -218,7 +236,49 @@ describe('behind Mosquitto, the live feed and the views of one worker', () => {
     expect(m1.relay.connects).toBeGreaterThan(before.relay.connects);
     expect(m1.relay.asksSent).toBeGreaterThan(before.relay.asksSent);
     expect(m2.relay.asksAnswered).toBeGreaterThan(0);
+    // Alerts are not held by the other workers: the board is told to re-read (a hello), once the connection held,
+    // not at each of the reconnects that were cut.
+    await until(() => b1.messages.slice(mark).some((x) => x.type === 'hello'));
+    await new Promise((r) => setTimeout(r, 1500));
+    expect(b1.messages.slice(mark).filter((x) => x.type === 'hello')).toHaveLength(1);
+    expect((await metrics('w1')).relay.resyncs).toBe(before.relay.resyncs + 1);
     b1.close();
+    await gw.end();
+  }, 120_000);
+});
+
+describe('behind Mosquitto, alerts', () => {
+  it('a cold interrupted purge judged by one worker alerts the other worker\'s board; acknowledged through one worker and resolved through the other, every board sees each step once', async () => {
+    const b1 = await board('w1');
+    const b2 = await board('w2');
+    const { gw, unitId } = await interruptionJudgedByW2();
+
+    // Worker 2 raised it: its own board has it from its feed, worker 1's board from the relay, the same.
+    const raised = await until(() => alertsOf(b1, unitId).find((a) => a.status === 'open'), 10_000);
+    expect(raised).toMatchObject({ unitId, depot: 'Relay depot', kind: 'interruptedPurge', status: 'open', secondsIntoPurge: 12, ambientC: -14, escalatedAt: null });
+    expect(await until(() => alertsOf(b2, unitId).find((a) => a.status === 'open'))).toEqual(raised);
+    // ...and it is the alert both workers' APIs list.
+    expect(await get('w1', `/api/alerts?status=open&unitId=${unitId}`)).toEqual([raised]);
+
+    // Acknowledged through worker 1's API: worker 2's board hears it.
+    const ack = await post('w1', `/api/alerts/${raised.id}/acknowledge`, { comment: 'Driver called back, purge to be run again' });
+    expect(ack.status).toBe(200);
+    expect(await until(() => alertsOf(b2, unitId).find((a) => a.status === 'acknowledged'), 10_000)).toEqual(ack.body);
+    expect(ack.body).toMatchObject({ status: 'acknowledged', acknowledgedBy: ADMIN.email, comment: 'Driver called back, purge to be run again' });
+    // Resolved through worker 2's API: worker 1's board hears it.
+    const done = await post('w2', `/api/alerts/${raised.id}/resolve`, {});
+    expect(done.status).toBe(200);
+    expect(await until(() => alertsOf(b1, unitId).find((a) => a.status === 'resolved'), 10_000)).toEqual(done.body);
+
+    // Once each on both boards: no echo on the worker that raised or handled it.
+    await until(() => alertsOf(b1, unitId).length >= 3 && alertsOf(b2, unitId).length >= 3);
+    await new Promise((r) => setTimeout(r, 500));
+    for (const b of [b1, b2]) expect(alertsOf(b, unitId).map((a) => [a.id, a.status])).toEqual([[raised.id, 'open'], [raised.id, 'acknowledged'], [raised.id, 'resolved']]);
+    const [m1, m2] = await Promise.all([metrics('w1'), metrics('w2')]);
+    expect(m1.relay.alertsAccepted).toBeGreaterThanOrEqual(2);
+    expect(m2.relay.alertsAccepted).toBeGreaterThanOrEqual(1);
+    b1.close();
+    b2.close();
     await gw.end();
   }, 120_000);
 });
