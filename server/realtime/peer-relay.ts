@@ -11,7 +11,8 @@ import type { LiveUnitView } from '../lib/context';
 import type { FleetEvents } from '../ingest/fleet-events';
 import type { UnitBook } from '../ingest/unit-book';
 import type { AlertView } from '../../shared/realtime/envelope';
-import { RELAY_CHANNEL, alertStage, decodeRelay, encodeAlerts, encodeAsk, encodeRelay, type RelayMessage, type RelayedUnit } from './peer-wire';
+import { AlertStages } from './alert-stages';
+import { RELAY_CHANNEL, decodeRelay, encodeAlerts, encodeAsk, encodeRelay, type RelayMessage, type RelayedUnit } from './peer-wire';
 
 /** What other workers changed, for this worker's live feed. */
 export interface PeerEvents {
@@ -54,13 +55,6 @@ interface Outgoing extends RelayedUnit {
 const MAX_TRANSIT_MS = 2000;
 
 /**
- * How many alerts' last stage a worker remembers, to drop a relayed state it already pushed (or a later one
- * already overtook). Far more alerts than a fleet raises while a notification can be late; an alert
- * forgotten past it is only re-checked less. Common practice, no published source.
- */
-const MAX_KNOWN_ALERTS = 20_000;
-
-/**
  * After a gap, how long the listening connection must hold before the boards are told to re-read, so that a
  * flapping connection does not make every board reload at each reconnect. Common practice, no published source.
  */
@@ -82,8 +76,8 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
   const outEpisodes = new Set<string>();
   /** Alerts this worker published, in order, not yet sent. */
   let outAlerts: AlertView[] = [];
-  /** Alert id -> the furthest stage this worker's live feed pushed (its own alerts and relayed ones), oldest first. */
-  const known = new Map<number, number>();
+  /** The furthest stage this worker's live feed pushed of each alert (its own alerts and relayed ones). */
+  const stages = new AlertStages();
   let alertChain = Promise.resolve();
   let ask = false;
   let client: pg.Client | null = null;
@@ -194,20 +188,9 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     schedule();
   }
 
-  /** Notes the stage of an alert this worker's feed pushes; false if it pushed this stage or a later one already. */
-  function advance(a: AlertView): boolean {
-    const stage = alertStage(a);
-    const was = known.get(a.id);
-    if (was !== undefined && was >= stage) return false;
-    known.delete(a.id); // to the newest end
-    known.set(a.id, stage);
-    if (known.size > MAX_KNOWN_ALERTS) known.delete(known.keys().next().value!);
-    return true;
-  }
-
   function receiveAlerts(alerts: AlertView[], refs: number[]) {
     const show = (a: AlertView) => {
-      if (!advance(a)) return void counters.alertsOlder++;
+      if (!stages.advance(a)) return void counters.alertsOlder++;
       counters.alertsAccepted++;
       feed.emit('alert', a);
     };
@@ -358,7 +341,7 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
     /** An alert this worker's live feed pushed: to the other workers' feeds. */
     relayAlert(alert: AlertView) {
       if (closed) return;
-      advance(alert);
+      stages.advance(alert);
       outAlerts.push(alert);
       schedule();
     },
