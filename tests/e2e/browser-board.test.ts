@@ -6,6 +6,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { startTestService, type TestService } from '../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
+import { until } from '../helpers/until';
 import { encodeDm1 } from '../../shared/j1939/dm1';
 import { bytesToHex } from '../../shared/j1939/hex';
 import { encodeCanId } from '../../shared/j1939/can-id';
@@ -206,9 +207,12 @@ describe('the board in a browser', () => {
   it('the unit page draws the readings chart and shows the interrupted episode in plain words', async () => {
     await page.goto(`${t.url}/units/BR-2`);
     await page.getByRole('heading', { name: 'BR-2' }).waitFor();
-    await page.locator('.afterwatch-chart canvas').waitFor();
-    const box = await page.locator('.afterwatch-chart canvas').boundingBox();
-    expect(box!.width).toBeGreaterThan(300);
+    // The chart redraws (a new canvas) when its readings arrive or its width settles: ask until one is laid out.
+    const box = await until(async () => {
+      const b = await page.locator('.afterwatch-chart canvas').first().boundingBox().catch(() => null);
+      return b && b.width > 0 ? b : null;
+    }, 10_000);
+    expect(box.width).toBeGreaterThan(300);
     const episode = page.locator('[data-episode-outcome="interrupted"]');
     await episode.waitFor();
     const text = await episode.innerText();
