@@ -72,18 +72,16 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     for (const id of unitIds) pending.add(id);
     if (!timer) timer = setTimeout(flush, deps.coalesceMs ?? 25);
   };
-  const episodesChanged = (unitIds: string[]) => {
-    const msg: ServerMessage = { type: 'episodes', unitIds: [...new Set(unitIds)] };
+  /** To every signed-in board (not the switch pages). */
+  const broadcast = (msg: ServerMessage) => {
     for (const p of peers) if (p.scope === 'fleet') send(p, msg);
   };
+  const episodesChanged = (unitIds: string[]) => broadcast({ type: 'episodes', unitIds: [...new Set(unitIds)] });
   deps.events.on('units', (changes) => unitsChanged(changes.map((c) => c.unitId)));
   deps.events.on('episodes', (changes) => episodesChanged(changes.map((c) => c.unitId)));
   deps.peers?.on('units', unitsChanged);
   deps.peers?.on('episodes', episodesChanged);
-  deps.peers?.on('alert', (alert) => {
-    const msg: ServerMessage = { type: 'alert', alert };
-    for (const p of peers) if (p.scope === 'fleet') send(p, msg);
-  });
+  deps.peers?.on('alert', (alert) => broadcast({ type: 'alert', alert }));
   // The relay missed notifications: a fresh hello makes each board re-read, as after its own reconnect.
   deps.peers?.on('resync', () => {
     for (const p of peers) if (p.scope === 'fleet') sendHello(p);
@@ -155,9 +153,7 @@ export function startLiveFeed(deps: LiveFeedDeps) {
 
   return {
     peers: () => peers.size,
-    broadcast(msg: ServerMessage) {
-      for (const p of peers) if (p.scope === 'fleet') send(p, msg);
-    },
+    broadcast,
     /** Closes the switch pages of a unit whose token was revoked. */
     dropSwitch(unitId: string) {
       for (const p of peers) if (p.scope === 'switch' && p.unitId === unitId) p.ws.close(4003, 'revoked');
