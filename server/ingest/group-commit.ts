@@ -79,7 +79,9 @@ export class GroupCommit<T> {
       this.roomWaiters = this.roomWaiters.filter((w) => (this.backlog < w.limit ? (w.resolve(), false) : true));
       // What arrived during the write goes next, at once; then the callers hear of this batch.
       if (this.current.length) this.cut();
-      this.settling = settleInSlices(batch, settle);
+      // Chained: a batch written while the one before is still being settled must not hide it from drain().
+      const settled = settleInSlices(batch, settle);
+      this.settling = Promise.all([this.settling, settled]).then(() => {});
     })();
   }
 }
