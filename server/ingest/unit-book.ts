@@ -141,6 +141,12 @@ export class UnitBook {
     return m;
   }
 
+  /** When the unit's open (pending) purge ends (C), if it has one: what its countdown counts to. */
+  purgeEndsAt(unitId: string): number | null {
+    const m = this.units.get(unitId);
+    return m ? this.openC(m) : null;
+  }
+
   /** The open (pending) episode's purge end C, if any. */
   private openC(m: UnitMemory): number | null {
     let c: number | null = null;

@@ -29,7 +29,7 @@ export interface PeerRelayDeps {
   workerId: string;
   events: FleetEvents;
   /** The ingest's memory, read only. */
-  book: Pick<UnitBook, 'peek' | 'view' | 'unitIds' | 'clock'>;
+  book: Pick<UnitBook, 'peek' | 'view' | 'unitIds' | 'clock' | 'purgeEndsAt'>;
   /** Reads an alert from the database, for one relayed by id (too large for a notification). */
   loadAlert(id: number): Promise<AlertView>;
   log: Logger;
@@ -92,8 +92,7 @@ export async function startPeerRelay(deps: PeerRelayDeps) {
   const remainingMsOf = (unitId: string, view: LiveUnitView, wall: number): number | null => {
     if (view.state !== 'purging' || view.purgeRemainingS === null) return null;
     const m = book.peek(unitId);
-    let c: number | null = null;
-    for (const { episode: e } of m?.episodes.values() ?? []) if (e.outcome === 'pending') c = Math.max(c ?? -Infinity, e.keyOff.ts + e.purgeSeconds * 1000);
+    const c = book.purgeEndsAt(unitId);
     const exact = m && c !== null ? c - book.clock(m, wall) : null;
     return exact !== null && Math.max(0, Math.ceil(exact / 1000)) === view.purgeRemainingS ? Math.max(0, exact) : view.purgeRemainingS * 1000;
   };
