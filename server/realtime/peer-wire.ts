@@ -59,62 +59,54 @@ const WireSchema = z.union([
 
 const bytes = (s: string) => Buffer.byteLength(s, 'utf8');
 
-/** The notifications for a batch of units and episode changes, each under MAX_PAYLOAD_BYTES. */
-export function encodeRelay(from: string, kind: 'units' | 'snapshot', at: number, units: RelayedUnit[], episodes: string[], limit = MAX_PAYLOAD_BYTES): string[] {
-  const k = kind === 'units' ? 'u' : 's';
-  const empty = bytes(JSON.stringify({ f: from, k, t: at, u: [], e: [] }));
+/** One item for `pack`: which of the two lists it joins, its JSON text, and what to send instead if it cannot fit alone. */
+type Packed = { list: 0 | 1; item: string; instead?: { list: 0 | 1; item: string } };
+
+/**
+ * Notifications `{<head>,"<first>":[...],"<second>":[...]}` holding the items in order, each under `limit`
+ * bytes. An item too large for a notification of its own goes as its `instead`, or is refused.
+ */
+function pack(head: string, [first, second]: [string, string], items: Iterable<Packed>, limit: number): string[] {
+  const build = (lists: string[][]) => `{${head},"${first}":[${lists[0].join(',')}],"${second}":[${lists[1].join(',')}]}`;
+  const empty = bytes(build([[], []]));
   const out: string[] = [];
-  let u: string[] = [];
-  let e: string[] = [];
+  let lists: string[][] = [[], []];
   let size = empty;
   const cut = () => {
-    if (u.length || e.length) out.push(`{"f":${JSON.stringify(from)},"k":"${k}","t":${JSON.stringify(at)},"u":[${u.join(',')}],"e":[${e.join(',')}]}`);
-    u = [];
-    e = [];
+    if (lists[0].length || lists[1].length) out.push(build(lists));
+    lists = [[], []];
     size = empty;
   };
-  const add = (list: 'u' | 'e', item: string) => {
-    const n = bytes(item) + 1; // and its comma
+  for (const p of items) {
+    const fits = (x: { item: string }) => empty + bytes(x.item) + 1 <= limit; // and its comma
+    const { list, item } = !fits(p) && p.instead ? p.instead : p;
+    const n = bytes(item) + 1;
     if (empty + n > limit) throw new Error(`one relayed item is larger than a notification (${n} bytes)`);
     if (size + n > limit) cut();
-    (list === 'u' ? u : e).push(item);
+    lists[list].push(item);
     size += n;
-  };
-  for (const unit of units) add('u', JSON.stringify(toTuple(unit)));
-  for (const id of episodes) add('e', JSON.stringify(id));
+  }
   cut();
   return out;
+}
+
+/** The notifications for a batch of units and episode changes, each under MAX_PAYLOAD_BYTES. */
+export function encodeRelay(from: string, kind: 'units' | 'snapshot', at: number, units: RelayedUnit[], episodes: string[], limit = MAX_PAYLOAD_BYTES): string[] {
+  const head = `"f":${JSON.stringify(from)},"k":"${kind === 'units' ? 'u' : 's'}","t":${JSON.stringify(at)}`;
+  const items: Packed[] = [
+    ...units.map((u): Packed => ({ list: 0, item: JSON.stringify(toTuple(u)) })),
+    ...episodes.map((id): Packed => ({ list: 1, item: JSON.stringify(id) })),
+  ];
+  return pack(head, ['u', 'e'], items, limit);
 }
 
 export const encodeAsk = (from: string) => JSON.stringify({ f: from, k: 'a' });
 
 /** The notifications for alerts in the order they were published, each under MAX_PAYLOAD_BYTES; one too large goes by its id. */
 export function encodeAlerts(from: string, alerts: AlertView[], limit = MAX_PAYLOAD_BYTES): string[] {
-  const empty = bytes(JSON.stringify({ f: from, k: 'al', a: [], r: [] }));
-  const out: string[] = [];
-  let a: string[] = [];
-  let r: string[] = [];
-  let size = empty;
-  const cut = () => {
-    if (a.length || r.length) out.push(`{"f":${JSON.stringify(from)},"k":"al","a":[${a.join(',')}],"r":[${r.join(',')}]}`);
-    a = [];
-    r = [];
-    size = empty;
-  };
-  const add = (list: 'a' | 'r', item: string) => {
-    const n = bytes(item) + 1; // and its comma
-    if (size + n > limit) cut();
-    (list === 'a' ? a : r).push(item);
-    size += n;
-  };
-  for (const alert of alerts) {
-    const item = JSON.stringify(alert);
-    // A reference is read back after the inline alerts of its notification; the rank check on receipt keeps the order.
-    if (empty + bytes(item) + 1 > limit) add('r', String(alert.id));
-    else add('a', item);
-  }
-  cut();
-  return out;
+  // A reference is read back after the inline alerts of its notification; the rank check on receipt keeps the order.
+  const items = alerts.map((a): Packed => ({ list: 0, item: JSON.stringify(a), instead: { list: 1, item: String(a.id) } }));
+  return pack(`"f":${JSON.stringify(from)},"k":"al"`, ['a', 'r'], items, limit);
 }
 
 /**
