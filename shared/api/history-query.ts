@@ -49,13 +49,18 @@ export const HistoryFaultQuerySchema = z
   .refine(rangeOk, rangeMessage);
 export type HistoryFaultQuery = z.infer<typeof HistoryFaultQuerySchema>;
 
-export const HistoryEpisodeRowSchema = z.object({
+/** What every history row says of where it happened: the unit, its depot now, and its driver then. */
+const RowPlaceFields = {
   id: z.number(),
   unitId: z.string(),
   unitName: z.string(),
   depot: z.string(),
   driverId: z.number().nullable(),
   driverName: z.string().nullable(),
+};
+
+export const HistoryEpisodeRowSchema = z.object({
+  ...RowPlaceFields,
   keyOffAt: z.string(),
   purgeSeconds: z.number(),
   outcome: z.string(),
@@ -70,12 +75,7 @@ export const HistoryEpisodeRowSchema = z.object({
 export type HistoryEpisodeRow = z.infer<typeof HistoryEpisodeRowSchema>;
 
 export const HistoryFaultRowSchema = z.object({
-  id: z.number(),
-  unitId: z.string(),
-  unitName: z.string(),
-  depot: z.string(),
-  driverId: z.number().nullable(),
-  driverName: z.string().nullable(),
+  ...RowPlaceFields,
   at: z.string(),
   sourceAddress: z.number(),
   spn: z.number(),

@@ -13,6 +13,11 @@ import { COUNT_CAP } from './sql-builder';
 const log = logger('history');
 const stamp = () => new Date().toISOString().slice(0, 19).replace(/[-:]/g, '').replace('T', '-');
 
+/** A page of rows with the pager's total, counted up to COUNT_CAP ("10,000+" past it). */
+const pageBody = <R>(rows: R[], total: number, q: { page: number; pageSize: number }) => ({
+  rows, total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page: q.page, pageSize: q.pageSize,
+});
+
 export function historyRoutes(ctx: AppContext) {
   const r = Router();
   const db = ctx.sequelize;
@@ -20,7 +25,7 @@ export function historyRoutes(ctx: AppContext) {
   r.get('/episodes', requirePermission('episodes.read'), async (req, res) => {
     const q = HistoryEpisodeQuerySchema.parse(req.query);
     const [total, rows] = await Promise.all([countEpisodes(db, q), pageOfEpisodes(db, q, q.pageSize, (q.page - 1) * q.pageSize)]);
-    res.json({ rows: rows.map(presentHistoryEpisode), total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page: q.page, pageSize: q.pageSize });
+    res.json(pageBody(rows.map(presentHistoryEpisode), total, q));
   });
 
   r.get('/episodes/export.csv', requirePermission('episodes.read'), async (req, res) => {
@@ -34,7 +39,7 @@ export function historyRoutes(ctx: AppContext) {
   r.get('/faults', requirePermission('faults.read'), async (req, res) => {
     const q = HistoryFaultQuerySchema.parse(req.query);
     const [total, rows] = await Promise.all([countFaults(db, q), pageOfFaults(db, q, q.pageSize, (q.page - 1) * q.pageSize)]);
-    res.json({ rows: rows.map(presentHistoryFault), total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page: q.page, pageSize: q.pageSize });
+    res.json(pageBody(rows.map(presentHistoryFault), total, q));
   });
 
   r.get('/faults/export.csv', requirePermission('faults.read'), async (req, res) => {
