@@ -1,7 +1,8 @@
 // `npm run bench [-- --quick] [--runs N]`: the product against the bare pipeline on this machine, with its
 // own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
 // `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data);
-// `--only weekend` the weekend replay alone, `--runs N` times.
+// `--only weekend` the weekend replay alone, `--runs N` times; `--only throughput` the bare pipeline and the
+// product at full speed alone.
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -58,8 +59,38 @@ async function weekendOnly(adminUrl: string) {
   process.stdout.write(`results written to ${file}\n`);
 }
 
+/** The bare pipeline and the product at full speed, `runs` times each, nothing else. */
+async function throughputOnly(adminUrl: string) {
+  const bareRuns: ThroughputFigures[] = [];
+  const prodRuns: ThroughputFigures[] = [];
+  for (let r = 0; r < runs; r++) {
+    say(`run ${r + 1}: bare pipeline, ${P.gateways} gateways, ${P.durationS} s at full speed`);
+    bareRuns.push(await bare(adminUrl, r, P.gateways, P.durationS));
+    say(`run ${r + 1}: product, ${P.gateways} gateways, ${P.durationS} s at full speed`);
+    prodRuns.push(await productMax(adminUrl, r, P.gateways, P.durationS));
+  }
+  const lines = throughputLines(bareRuns, prodRuns);
+  process.stdout.write(`${lines.join('\n')}\n`);
+  mkdirSync('bench-results', { recursive: true });
+  const file = join('bench-results', `bench-throughput-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'throughput', params: P, bareRuns, prodRuns }, null, 2));
+  process.stdout.write(`results written to ${file}\n`);
+}
+
+function throughputLines(bareRuns: ThroughputFigures[], prodRuns: ThroughputFigures[]) {
+  const bareRate = stats(bareRuns.map((b) => b.msgsPerS))!;
+  const prodRate = stats(prodRuns.map((p) => p.msgsPerS))!;
+  return [
+    `bare pipeline    sustained ${fmt(bareRate, ' msg/s')}, publish→commit p50 ${fmt(stats(bareRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(bareRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
+    `                 CPU s: pipeline ${fmt(stats(bareRuns.map((b) => b.cpu.pipeline)), '', 1)}, postgres ${fmt(stats(bareRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(bareRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(bareRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
+    `product          sustained ${fmt(prodRate, ' msg/s')}, publish→commit p50 ${fmt(stats(prodRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(prodRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
+    `                 CPU s: service ${fmt(stats(prodRuns.map((b) => b.cpu.service)), '', 1)}, postgres ${fmt(stats(prodRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(prodRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(prodRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
+    `ratio            product / bare = ${(prodRate.median / bareRate.median).toFixed(2)} (target ≥ 0.75)`,
+  ];
+}
+
 async function main() {
-  if (only !== null && only !== 'history' && only !== 'weekend') throw new Error(`--only knows two steps: history, weekend (got ${only})`);
+  if (only !== null && only !== 'history' && only !== 'weekend' && only !== 'throughput') throw new Error(`--only knows three steps: history, weekend, throughput (got ${only})`);
   const dir = mkdtempSync(join(tmpdir(), 'afterwatch-bench-pg-'));
   say(`afterwatch bench: ${quick ? 'quick' : 'full'}, ${runs} run(s)`);
   const pg = await startLocalPostgres({ dataDir: dir, database: 'postgres' });
@@ -68,6 +99,7 @@ async function main() {
   try {
     if (only === 'history') return await historyOnly(adminUrl);
     if (only === 'weekend') return await weekendOnly(adminUrl);
+    if (only === 'throughput') return await throughputOnly(adminUrl);
     const bareRuns: ThroughputFigures[] = [];
     const prodRuns: ThroughputFigures[] = [];
     for (let r = 0; r < runs; r++) {
@@ -97,16 +129,11 @@ async function main() {
     const weekend = await weekendReplay(adminUrl, P.weekendUnits);
     Object.assign(out, { bareRuns, prodRuns, normal, half, history, weekend: { units: weekend.units, wallS: weekend.wallS } });
 
-    const prodRate = stats(prodRuns.map((p) => p.msgsPerS))!;
     const lines = [
       '',
       `Afterwatch benchmark (${quick ? 'quick' : 'full'}; median of ${runs} run(s), min–max in brackets)`,
       '',
-      `bare pipeline    sustained ${fmt(bareRate, ' msg/s')}, publish→commit p50 ${fmt(stats(bareRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(bareRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
-      `                 CPU s: pipeline ${fmt(stats(bareRuns.map((b) => b.cpu.pipeline)), '', 1)}, postgres ${fmt(stats(bareRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(bareRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(bareRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
-      `product          sustained ${fmt(prodRate, ' msg/s')}, publish→commit p50 ${fmt(stats(prodRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(prodRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
-      `                 CPU s: service ${fmt(stats(prodRuns.map((b) => b.cpu.service)), '', 1)}, postgres ${fmt(stats(prodRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(prodRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(prodRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
-      `ratio            product / bare = ${(prodRate.median / bareRate.median).toFixed(2)} (target ≥ 0.75)`,
+      ...throughputLines(bareRuns, prodRuns),
       '',
       ...([['live', normal], ['half bare', half]] as const).flatMap(([name, xs]) => [
         `${name.padEnd(16)} ${P.liveUnits} units at ${Math.round(xs[0].rate)} msg/s: committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,

@@ -1,10 +1,10 @@
 // Child processes of the benchmark and what they cost: CPU seconds and peak resident memory from /proc.
 import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
 
 const TICK = 100; // USER_HZ on Linux
-const tsx = join('node_modules', 'tsx', 'dist', 'cli.mjs');
+// `BENCH_CPU_PROF=dir` writes a V8 CPU profile of every process the benchmark starts into dir.
+const profile = process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
 
 export function cpuSeconds(pid: number): number {
   try {
@@ -50,7 +50,7 @@ export function postgresPids(user: string): number[] {
 
 export const sumCpu = (pids: number[]) => pids.reduce((s, p) => s + cpuSeconds(p), 0);
 
-/** A process and its descendants (tsx runs the script in a child node process). */
+/** A process and its descendants. */
 export function processTree(pid: number): number[] {
   const out = [pid];
   for (let i = 0; i < out.length; i++) {
@@ -74,7 +74,8 @@ export interface Child {
 }
 
 export function spawnTs(script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child {
-  const proc = spawn(process.execPath, [tsx, script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  // tsx as a loader: one process per script, so its CPU and memory are the script's own.
+  const proc = spawn(process.execPath, [...profile, '--import', 'tsx', script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   let partial = '';
   proc.stdout!.on('data', (d: Buffer) => {
