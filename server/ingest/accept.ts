@@ -7,7 +7,6 @@ import type { GroupCommit } from './group-commit';
 import type { IngestItem } from './items';
 import { excerptOf, parseMessage } from './parse-message';
 import type { StatusMessage } from '../../shared/protocol/messages';
-import type { UnitEvent } from '../detection/types';
 
 export interface IngestCounters {
   accepted: number;
@@ -51,6 +50,7 @@ export function createAccept(deps: AcceptDeps) {
     const gw = deps.directory.peek(gatewayId) ?? (await deps.directory.get(gatewayId));
     if (!gw) return quarantine(gatewayId, topic, 'gateway is not provisioned for any unit', payload);
     if (gw.revoked) return quarantine(gatewayId, topic, 'gateway has been revoked', payload);
+    parsed.event.stream = gw.stream;
     return deps.batch.add({
       type: 'message',
       gatewayId,
@@ -61,7 +61,7 @@ export function createAccept(deps: AcceptDeps) {
       ts: parsed.ts,
       kind: parsed.kind,
       payload: parsed.payload,
-      event: { ...parsed.event, stream: gw.stream } as UnitEvent,
+      event: parsed.event,
       frames: parsed.frames,
       receivedAt: deps.wallNow(),
     });

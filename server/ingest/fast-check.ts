@@ -1,0 +1,60 @@
+// The common case of validation without zod's machinery: plain checks that accept a payload only where the
+// protocol's zod schemas (shared/protocol/messages.ts) accept it, and build the same stripped value. Anything
+// they do not accept (null) goes to zod, which decides and gives the reason, so a refusal always reads the same.
+// tests/server/ingest/fast-check.test.ts holds the two to agreement over valid, edge and hostile payloads.
+import { MAX_FRAMES_PER_MESSAGE, TS_PATTERN } from '../../shared/protocol/limits';
+import type { CanMessage, PowerMessage, Telemetry } from '../../shared/protocol/messages';
+
+type Obj = Record<string, unknown>;
+
+const isCounter = (v: unknown): v is number => typeof v === 'number' && Number.isSafeInteger(v) && v >= 0;
+const isVolts = (v: unknown): v is number => typeof v === 'number' && v >= -1000 && v <= 1000;
+
+/** The protocol's timestamp: the pattern, and a real date that prints back the same. */
+function isTimestamp(v: unknown): v is string {
+  if (typeof v !== 'string' || v.length !== 24 || !TS_PATTERN.test(v)) return false;
+  const ms = Date.parse(v);
+  return !Number.isNaN(ms) && new Date(ms).toISOString() === v;
+}
+
+export function fastTelemetry(m: Obj): Telemetry | null {
+  const { boot, seq, ts, key, supplyV, ambientC, ecmAwake } = m;
+  if (!isCounter(boot) || !isCounter(seq) || !isTimestamp(ts)) return null;
+  if ((key !== 'on' && key !== 'off') || !isVolts(supplyV) || typeof ecmAwake !== 'boolean') return null;
+  if (ambientC !== undefined && ambientC !== null && !(typeof ambientC === 'number' && ambientC >= -100 && ambientC <= 100)) return null;
+  return { boot, seq, ts, key, supplyV, ambientC: ambientC ?? null, ecmAwake };
+}
+
+const SUPPLY_EVENTS = new Set(['supply-lost', 'supply-restored', 'boot']);
+const CAUSES = new Set(['supply-lost', 'sleep', 'watchdog', 'unknown']);
+
+export function fastPower(m: Obj): PowerMessage | null {
+  const { boot, seq, ts, event, supplyV, prevShutdown } = m;
+  if (!isCounter(boot) || !isCounter(seq) || !isTimestamp(ts)) return null;
+  if (typeof event !== 'string' || !SUPPLY_EVENTS.has(event) || !isVolts(supplyV)) return null;
+  let prev: PowerMessage['prevShutdown'] = null;
+  if (prevShutdown !== undefined && prevShutdown !== null) {
+    if (typeof prevShutdown !== 'object' || Array.isArray(prevShutdown)) return null;
+    const { ts: at, cause } = prevShutdown as Obj;
+    if (!isTimestamp(at) || typeof cause !== 'string' || !CAUSES.has(cause)) return null;
+    prev = { ts: at, cause: cause as NonNullable<PowerMessage['prevShutdown']>['cause'] };
+  }
+  return { boot, seq, ts, event: event as PowerMessage['event'], supplyV, prevShutdown: prev };
+}
+
+const HEX_ID = /^[0-9A-Fa-f]{8}$/;
+const HEX_DATA = /^(?:[0-9A-Fa-f]{2}){0,8}$/;
+
+export function fastCan(m: Obj): CanMessage | null {
+  const { boot, seq, ts, frames } = m;
+  if (!isCounter(boot) || !isCounter(seq) || !isTimestamp(ts)) return null;
+  if (!Array.isArray(frames) || frames.length > MAX_FRAMES_PER_MESSAGE) return null;
+  const out: CanMessage['frames'] = [];
+  for (const f of frames) {
+    if (typeof f !== 'object' || f === null || Array.isArray(f)) return null;
+    const { t, id, data } = f as Obj;
+    if (!isTimestamp(t) || typeof id !== 'string' || !HEX_ID.test(id) || typeof data !== 'string' || !HEX_DATA.test(data)) return null;
+    out.push({ t, id, data });
+  }
+  return { boot, seq, ts, frames: out };
+}
