@@ -7,22 +7,23 @@ import type { Accept, BrokerCounters } from '../types';
 import type { ReadGate } from '../read-gate';
 
 export function createAuthorizePublish(accept: Accept, counters: BrokerCounters, onRefuse: (id: string, reason: string) => void, gate?: ReadGate) {
+  // Made once, not per message (a closure per publish costs the hot path).
+  function refuse(client: Client, callback: (err?: Error | null) => void, reason: string) {
+    onRefuse(client.id, reason);
+    callback(new Error(reason));
+  }
   return (client: Client | null, packet: PublishPacket, callback: (err?: Error | null) => void) => {
     if (!client) return callback(null); // the service's own publishes
     if ((client as Client & { isService?: boolean }).isService) return callback(null);
-    const refuse = (reason: string) => {
-      onRefuse(client.id, reason);
-      callback(new Error(reason));
-    };
     const parsed = parseTopic(packet.topic);
     if (!parsed || parsed.gatewayId !== client.id || parsed.kind === 'indicator') {
       counters.publishRefused++;
-      return refuse(`publish to ${packet.topic.slice(0, 200)} refused`);
+      return refuse(client, callback, `publish to ${packet.topic.slice(0, 200)} refused`);
     }
     const payload = Buffer.isBuffer(packet.payload) ? packet.payload : Buffer.from(packet.payload);
     if (payload.length > MAX_PAYLOAD_BYTES) {
       counters.oversized++;
-      return refuse(`payload of ${payload.length} bytes is over ${MAX_PAYLOAD_BYTES}`);
+      return refuse(client, callback, `payload of ${payload.length} bytes is over ${MAX_PAYLOAD_BYTES}`);
     }
     if (packet.retain) packet.retain = false; // gateways' messages are events, never retained state
     gate?.enter();
