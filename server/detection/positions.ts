@@ -23,6 +23,10 @@ export function positionOf(p: EventPosition): EventPosition {
 
 /** Protocol: of duplicates with the same (boot, seq) the first accepted copy wins; then (stream, boot, seq) order. */
 export function orderEvents(events: readonly UnitEvent[]): UnitEvent[] {
+  // The usual case, live traffic: already in strictly rising order, so sorted and free of copies.
+  let rising = true;
+  for (let i = 1; i < events.length && rising; i++) rising = comparePositions(events[i - 1], events[i]) < 0;
+  if (rising) return events.slice();
   const firstCopies = new Map<string, UnitEvent>();
   for (const event of events) {
     const key = positionKey(event);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { UnitEvent } from '../../../server/detection/types';
 import { at, gateway, judge, keyedOff, onlyEpisode, shuffled } from './builders';
+import { orderEvents } from '../../../server/detection/positions';
 
 // Gateway protocol v1: QoS 1 means duplicates and out-of-order delivery; the service works in event
 // time, ordered by (boot, seq); of duplicates the first accepted copy wins. Store-and-forward uploads
@@ -112,5 +113,29 @@ describe('order, duplicates and gaps', () => {
     replacement.off(5220);
     const { episodes } = judge(shuffled([...replacement.events, ...old.events], 9));
     expect(episodes.map((e) => [e.keyOff.stream, e.outcome])).toEqual([[0, 'interrupted'], [1, 'completed']]);
+  });
+});
+
+describe('orderEvents', () => {
+  // Protocol v1: (boot, seq) orders a gateway's messages; of copies the first accepted wins.
+  const ev = (boot: number, seq: number, supplyV = 12.6): UnitEvent => ({ kind: 'telemetry', stream: 0, boot, seq, ts: seq * 1000, key: 'on', supplyV, ambientC: null, ecmAwake: true });
+
+  it('returns rising input as a copy, in the same order', () => {
+    const input = [ev(1, 0), ev(1, 1), ev(2, 0)];
+    const out = orderEvents(input);
+    expect(out).toEqual(input);
+    expect(out).not.toBe(input);
+  });
+
+  it('sorts the rest and keeps the first copy of a repeated position', () => {
+    const first = ev(1, 1, 12.1);
+    const out = orderEvents([ev(2, 0), first, ev(1, 0), ev(1, 1, 12.9)]);
+    expect(out.map((e) => `${e.boot}/${e.seq}`)).toEqual(['1/0', '1/1', '2/0']);
+    expect(out[1]).toBe(first);
+  });
+
+  it('treats a copy right after its original as a copy, not as rising', () => {
+    const out = orderEvents([ev(1, 0), ev(1, 1, 12.1), ev(1, 1, 12.9)]);
+    expect(out.map((e) => e.supplyV)).toEqual([12.6, 12.1]);
   });
 });
