@@ -77,6 +77,9 @@ async function throughputOnly(adminUrl: string) {
   process.stdout.write(`results written to ${file}\n`);
 }
 
+/** CPU microseconds a process spent per committed message, over the runs. */
+const perMessage = (runs: ThroughputFigures[], who: string) => stats(runs.map((r) => (r.messages ? (r.cpu[who] * 1e6) / r.messages : null)));
+
 function throughputLines(bareRuns: ThroughputFigures[], prodRuns: ThroughputFigures[]) {
   const bareRate = stats(bareRuns.map((b) => b.msgsPerS))!;
   const prodRate = stats(prodRuns.map((p) => p.msgsPerS))!;
@@ -86,6 +89,8 @@ function throughputLines(bareRuns: ThroughputFigures[], prodRuns: ThroughputFigu
     `product          sustained ${fmt(prodRate, ' msg/s')}, publish→commit p50 ${fmt(stats(prodRuns.map((b) => b.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(prodRuns.map((b) => b.p99Ms)), ' ms', 1)}`,
     `                 CPU s: service ${fmt(stats(prodRuns.map((b) => b.cpu.service)), '', 1)}, postgres ${fmt(stats(prodRuns.map((b) => b.cpu.postgres)), '', 1)}, publishers ${fmt(stats(prodRuns.map((b) => b.cpu.publishers)), '', 1)}; peak RSS ${fmt(stats(prodRuns.map((b) => b.rssMb ?? null)), ' MB')}`,
     `ratio            product / bare = ${(prodRate.median / bareRate.median).toFixed(2)} (target ≥ 0.75)`,
+    `CPU per message  bare: pipeline ${fmt(perMessage(bareRuns, 'pipeline'), ' µs', 1)}, postgres ${fmt(perMessage(bareRuns, 'postgres'), ' µs', 1)}, publishers ${fmt(perMessage(bareRuns, 'publishers'), ' µs', 1)}`,
+    `                 product: service ${fmt(perMessage(prodRuns, 'service'), ' µs', 1)}, postgres ${fmt(perMessage(prodRuns, 'postgres'), ' µs', 1)}, publishers ${fmt(perMessage(prodRuns, 'publishers'), ' µs', 1)}`,
   ];
 }
 

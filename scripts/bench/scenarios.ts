@@ -34,6 +34,8 @@ const rssOf = (c: Child) => treePeakRssMb(c.proc.pid!);
 
 export interface ThroughputFigures {
   msgsPerS: number; p50Ms: number | null; p99Ms: number | null; cpu: Record<string, number>; rssMb?: number; failed: number;
+  /** Messages committed in the run. */
+  messages: number;
 }
 
 export async function bare(adminUrl: string, run: number, gateways: number, durationS: number): Promise<ThroughputFigures> {
@@ -47,7 +49,7 @@ export async function bare(adminUrl: string, run: number, gateways: number, dura
   const c0 = cpuOf(child);
   const { result } = await publish(`mqtt://127.0.0.1:${port}`, gws, { mode: 'max', window: 20, durationS });
   const figures = {
-    msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed,
+    msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed, messages: result.acked,
     cpu: { pipeline: cpuOf(child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS }, rssMb: rssOf(child),
   };
   await child.stop();
@@ -86,7 +88,7 @@ export async function productMax(adminUrl: string, run: number, gateways: number
   const c0 = cpuOf(s.child);
   const { result } = await publish(s.mqttUrl, s.gateways, { mode: 'max', window: 20, durationS });
   const figures = {
-    msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed,
+    msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed, messages: result.acked,
     cpu: { service: cpuOf(s.child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS }, rssMb: rssOf(s.child),
   };
   await s.stop();
