@@ -2,7 +2,7 @@
 // protocol's zod schemas (shared/protocol/messages.ts) accept it, and build the same stripped value. Anything
 // they do not accept (null) goes to zod, which decides and gives the reason, so a refusal always reads the same.
 // tests/server/ingest/fast-check.test.ts holds the two to agreement over valid, edge and hostile payloads.
-import { MAX_FRAMES_PER_MESSAGE, TS_PATTERN } from '../../shared/protocol/limits';
+import { MAX_FRAMES_PER_MESSAGE } from '../../shared/protocol/limits';
 import type { CanMessage, PowerMessage, Telemetry } from '../../shared/protocol/messages';
 
 type Obj = Record<string, unknown>;
@@ -10,11 +10,34 @@ type Obj = Record<string, unknown>;
 const isCounter = (v: unknown): v is number => typeof v === 'number' && Number.isSafeInteger(v) && v >= 0;
 const isVolts = (v: unknown): v is number => typeof v === 'number' && v >= -1000 && v <= 1000;
 
-/** The protocol's timestamp: the pattern, and a real date that prints back the same. */
+const DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+const leap = (y: number) => (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+const digits = (s: string, from: number, n: number) => {
+  let v = 0;
+  for (let i = from; i < from + n; i++) {
+    const c = s.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    v = v * 10 + c;
+  }
+  return v;
+};
+
+/**
+ * The protocol's timestamp, YYYY-MM-DDTHH:MM:SS.mmmZ and a real date and time, read field by field: what
+ * zod's pattern and its "prints back the same" check accept (the proleptic Gregorian calendar of JavaScript's Date).
+ */
 function isTimestamp(v: unknown): v is string {
-  if (typeof v !== 'string' || v.length !== 24 || !TS_PATTERN.test(v)) return false;
-  const ms = Date.parse(v);
-  return !Number.isNaN(ms) && new Date(ms).toISOString() === v;
+  if (typeof v !== 'string' || v.length !== 24) return false;
+  if (v[4] !== '-' || v[7] !== '-' || v[10] !== 'T' || v[13] !== ':' || v[16] !== ':' || v[19] !== '.' || v[23] !== 'Z') return false;
+  const y = digits(v, 0, 4);
+  const mo = digits(v, 5, 2);
+  const d = digits(v, 8, 2);
+  const h = digits(v, 11, 2);
+  const mi = digits(v, 14, 2);
+  const sec = digits(v, 17, 2);
+  const ms = digits(v, 20, 3);
+  if (y < 0 || mo < 1 || mo > 12 || d < 1 || h < 0 || h > 23 || mi < 0 || mi > 59 || sec < 0 || sec > 59 || ms < 0) return false;
+  return d <= (mo === 2 && leap(y) ? 29 : DAYS[mo - 1]);
 }
 
 export function fastTelemetry(m: Obj): Telemetry | null {

@@ -24,8 +24,12 @@ const copyField = (s: string) => (s.includes('\\') ? s.replace(/\\/g, '\\\\') : 
 /** The batch as COPY's text rows: gateway, boot, seq, unit, stream, kind, ts, payload, received_at. */
 function copyRows(items: MessageItem[]): string {
   let out = '';
+  // Arrival times repeat from one message to the next (many arrive in the same millisecond).
+  let at = NaN;
+  let atText = '';
   for (const m of items) {
-    out += `${m.gatewayId}\t${m.boot}\t${m.seq}\t${m.unitId}\t${m.stream}\t${m.kind}\t${m.payload.ts}\t${copyField(JSON.stringify(m.payload))}\t${new Date(m.receivedAt).toISOString()}\n`;
+    if (m.receivedAt !== at) atText = new Date((at = m.receivedAt)).toISOString();
+    out += `${m.gatewayId}\t${m.boot}\t${m.seq}\t${m.unitId}\t${m.stream}\t${m.kind}\t${m.payload.ts}\t${copyField(JSON.stringify(m.payload))}\t${atText}\n`;
   }
   return out;
 }
