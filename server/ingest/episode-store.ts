@@ -70,21 +70,49 @@ export function eventFromRow(r: MessageRow): { event: UnitEvent; frames: CanFram
   return { event, frames: r.kind === 'can' ? p.frames : null, receivedAt: r.received_at.getTime() };
 }
 
-/** A unit's messages from a position on (or its last `tail` messages before `from` when tail is given). */
+const COLUMNS = 'm.stream, m.boot, m.seq, m.kind, m.payload, m.received_at';
+// A bound on (boot, seq) for each of the unit's gateways: the position's own for its stream's gateway, none
+// for the others. Read per gateway (LATERAL), so that each is a range of the primary key (gateway, boot, seq, ts);
+// a gateway's messages are its unit's (the gateway's row names the unit for good).
+const bound = (none: string) => `(CASE WHEN g.stream = $2 THEN $3::bigint ELSE ${none} END, CASE WHEN g.stream = $2 THEN $4::bigint ELSE ${none} END)`;
+const MAX_BIGINT = '9223372036854775807';
+/** Extra rows read per gateway for the tail, so that copies of one position (told apart by ts) do not push the first-received one out. */
+const COPY_MARGIN = 10;
+
+/**
+ * A unit's messages from a position on (or its last `beforeTail` messages before it; the last of all without
+ * a position), in position order. Positions are read through the messages' primary key, gateway by gateway
+ * (a unit's stream is one gateway): no index of their own to keep up on every insert. Without a position, a
+ * unit's messages of some kinds come through the (unit, kind, ts) index.
+ */
 export async function loadEvents(sequelize: Sequelize, unitId: string, opts: { from?: EventPosition | null; kinds?: string[]; beforeTail?: number }, t?: Transaction) {
   const kinds = opts.kinds ?? ['telemetry', 'power', 'can'];
   const from = opts.from ?? null;
-  const sql = opts.beforeTail
-    ? `SELECT * FROM (SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
-         AND ($2::int IS NULL OR (stream, boot, seq) < ($2, $3, $4)) ORDER BY stream DESC, boot DESC, seq DESC, received_at LIMIT ${Number(opts.beforeTail)}) x
-       ORDER BY stream, boot, seq, received_at`
-    : `SELECT stream, boot, seq, kind, payload, received_at FROM messages WHERE unit_id = $1 AND kind = ANY($5::text[])
-         AND ($2::int IS NULL OR (stream, boot, seq) >= ($2, $3, $4)) ORDER BY stream, boot, seq, received_at`;
-  const rows = await sequelize.query<MessageRow>(sql, {
-    bind: [unitId, from?.stream ?? null, from?.boot ?? null, from?.seq ?? null, kinds],
-    type: QueryTypes.SELECT,
-    transaction: t,
-  });
+  const tail = opts.beforeTail ? Number(opts.beforeTail) : 0;
+  const position = [unitId, from?.stream ?? null, from?.boot ?? null, from?.seq ?? null, kinds];
+  const [sql, bind] = tail
+    ? [
+        `SELECT * FROM (
+           SELECT x.* FROM gateways g CROSS JOIN LATERAL (
+             SELECT ${COLUMNS} FROM messages m
+             WHERE m.gateway_id = g.gateway_id AND (m.boot, m.seq) < ${bound(MAX_BIGINT)} AND m.kind = ANY($5::text[])
+             ORDER BY m.boot DESC, m.seq DESC, m.ts DESC LIMIT ${tail + COPY_MARGIN}) x
+           WHERE g.unit_id = $1 AND ($2::int IS NULL OR g.stream <= $2)
+           ORDER BY x.stream DESC, x.boot DESC, x.seq DESC, x.received_at LIMIT ${tail}) y
+         ORDER BY stream, boot, seq, received_at`,
+        position,
+      ]
+    : from
+      ? [
+          `SELECT x.* FROM gateways g CROSS JOIN LATERAL (
+             SELECT ${COLUMNS} FROM messages m
+             WHERE m.gateway_id = g.gateway_id AND (m.boot, m.seq) >= ${bound('-1')} AND m.kind = ANY($5::text[])) x
+           WHERE g.unit_id = $1 AND g.stream >= $2
+           ORDER BY x.stream, x.boot, x.seq, x.received_at`,
+          position,
+        ]
+      : [`SELECT ${COLUMNS} FROM messages m WHERE m.unit_id = $1 AND m.kind = ANY($2::text[]) ORDER BY m.stream, m.boot, m.seq, m.received_at`, [unitId, kinds]];
+  const rows = await sequelize.query<MessageRow>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
   return rows.map(eventFromRow);
 }
 
@@ -103,11 +131,11 @@ export async function deleteEpisodes(sequelize: Sequelize, t: Transaction, ids: 
   await sequelize.query(`DELETE FROM episodes WHERE id = ANY($1::bigint[])`, { bind: [ids], transaction: t });
 }
 
-/** One boot's events and the next boot's (which carries its boot record). */
+/** One boot's events and the next boot's (which carries its boot record), through the primary key. */
 export async function loadBootEvents(sequelize: Sequelize, unitId: string, stream: number, boot: number, t?: Transaction) {
   const rows = await sequelize.query<MessageRow>(
-    `SELECT stream, boot, seq, kind, payload, received_at FROM messages
-     WHERE unit_id = $1 AND stream = $2 AND boot IN ($3::bigint, $3::bigint + 1) ORDER BY stream, boot, seq, received_at`,
+    `SELECT ${COLUMNS} FROM gateways g JOIN messages m ON m.gateway_id = g.gateway_id
+     WHERE g.unit_id = $1 AND g.stream = $2 AND m.boot IN ($3::bigint, $3::bigint + 1) ORDER BY m.stream, m.boot, m.seq, m.received_at`,
     { bind: [unitId, stream, boot], type: QueryTypes.SELECT, transaction: t },
   );
   return rows.map(eventFromRow);

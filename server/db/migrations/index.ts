@@ -14,5 +14,6 @@ import { migration as plannerDeskB } from './20261202060000-planner-desk-b';
 import { migration as episodesHistoryOrderIndex } from './20261202070000-episodes-history-order-index';
 import { migration as dropRedundantMessageIndex } from './20261202080000-drop-redundant-message-index';
 import { migration as messagesWithoutUnitFk } from './20261202090000-messages-without-unit-fk';
+import { migration as messagesPositionsByPrimaryKey } from './20261202100000-messages-positions-by-primary-key';
 
-export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB, episodesHistoryOrderIndex, dropRedundantMessageIndex, messagesWithoutUnitFk];
+export const migrations: Migration[] = [createUsers, createUnits, createGateways, createAuditLog, createMessages, createEpisodes, createAlerts, addGatewayBrokerHash, partitionMessages, createDrivers, plannerDeskB, episodesHistoryOrderIndex, dropRedundantMessageIndex, messagesWithoutUnitFk, messagesPositionsByPrimaryKey];
