@@ -2,7 +2,8 @@
 // own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
 // `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data);
 // `--only weekend` the weekend replay alone, `--runs N` times; `--only throughput` the bare pipeline and the
-// product at full speed alone.
+// product at full speed alone; `--only half [--rate N]` the live fleet at half the bare ceiling alone (the
+// ceiling measured first unless --rate gives the load in messages/s).
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -94,8 +95,41 @@ function throughputLines(bareRuns: ThroughputFigures[], prodRuns: ThroughputFigu
   ];
 }
 
+/** The live fleet at half the bare ceiling (or at --rate), `runs` times, with the board watching. */
+async function halfOnly(adminUrl: string) {
+  const rateArg = args.indexOf('--rate');
+  let rate = rateArg >= 0 ? Number(args[rateArg + 1]) : NaN;
+  if (!Number.isFinite(rate)) {
+    say(`bare pipeline, ${P.gateways} gateways, ${P.durationS} s at full speed (for the ceiling)`);
+    rate = (await bare(adminUrl, 0, P.gateways, P.durationS)).msgsPerS / 2;
+  }
+  const live = await startProduct(adminUrl, 'bench_half', P.liveUnits);
+  const half: LiveFigures[] = [];
+  try {
+    for (let r = 0; r < runs; r++) {
+      say(`run ${r + 1}: ${P.liveUnits} units at ${Math.round(rate)} messages/s`);
+      half.push(await productLive(live, { rate, durationS: P.liveS, eventGateways: P.events, boot: r + 1 }));
+    }
+  } finally {
+    await live.stop();
+  }
+  process.stdout.write(`${liveLines('half bare', half).join('\n')}\n`);
+  mkdirSync('bench-results', { recursive: true });
+  const file = join('bench-results', `bench-half-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'half', params: P, half }, null, 2));
+  process.stdout.write(`results written to ${file}\n`);
+}
+
+function liveLines(name: string, xs: LiveFigures[]) {
+  return [
+    `${name.padEnd(16)} ${P.liveUnits} units at ${Math.round(xs[0].rate)} msg/s: committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,
+    `                 publish→board key-off p50 ${fmt(stats(xs.map((x) => x.keyOffBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.keyOffBoardP99Ms)), ' ms')}; supply loss p50 ${fmt(stats(xs.map((x) => x.supplyLossBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.supplyLossBoardP99Ms)), ' ms')}; events not seen ${xs.reduce((s, x) => s + x.eventsMissing, 0)}`,
+    `                 service RSS ${fmt(stats(xs.map((x) => x.serviceRssMb)), ' MB')}, CPU s: service ${fmt(stats(xs.map((x) => x.cpu.service)), '', 1)}, postgres ${fmt(stats(xs.map((x) => x.cpu.postgres)), '', 1)}, publishers ${fmt(stats(xs.map((x) => x.cpu.publishers)), '', 1)}`,
+  ];
+}
+
 async function main() {
-  if (only !== null && only !== 'history' && only !== 'weekend' && only !== 'throughput') throw new Error(`--only knows three steps: history, weekend, throughput (got ${only})`);
+  if (only !== null && !['history', 'weekend', 'throughput', 'half'].includes(only)) throw new Error(`--only knows four steps: history, weekend, throughput, half (got ${only})`);
   const dir = mkdtempSync(join(tmpdir(), 'afterwatch-bench-pg-'));
   say(`afterwatch bench: ${quick ? 'quick' : 'full'}, ${runs} run(s)`);
   const pg = await startLocalPostgres({ dataDir: dir, database: 'postgres' });
@@ -105,6 +139,7 @@ async function main() {
     if (only === 'history') return await historyOnly(adminUrl);
     if (only === 'weekend') return await weekendOnly(adminUrl);
     if (only === 'throughput') return await throughputOnly(adminUrl);
+    if (only === 'half') return await halfOnly(adminUrl);
     const bareRuns: ThroughputFigures[] = [];
     const prodRuns: ThroughputFigures[] = [];
     for (let r = 0; r < runs; r++) {
@@ -140,11 +175,8 @@ async function main() {
       '',
       ...throughputLines(bareRuns, prodRuns),
       '',
-      ...([['live', normal], ['half bare', half]] as const).flatMap(([name, xs]) => [
-        `${name.padEnd(16)} ${P.liveUnits} units at ${Math.round(xs[0].rate)} msg/s: committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,
-        `                 publish→board key-off p50 ${fmt(stats(xs.map((x) => x.keyOffBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.keyOffBoardP99Ms)), ' ms')}; supply loss p50 ${fmt(stats(xs.map((x) => x.supplyLossBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.supplyLossBoardP99Ms)), ' ms')}; events not seen ${xs.reduce((s, x) => s + x.eventsMissing, 0)}`,
-        `                 service RSS ${fmt(stats(xs.map((x) => x.serviceRssMb)), ' MB')}, CPU s: service ${fmt(stats(xs.map((x) => x.cpu.service)), '', 1)}, postgres ${fmt(stats(xs.map((x) => x.cpu.postgres)), '', 1)}, publishers ${fmt(stats(xs.map((x) => x.cpu.publishers)), '', 1)}`,
-      ]),
+      ...liveLines('live', normal),
+      ...liveLines('half bare', half),
       '',
       `history          a depot's 90-day page over ${history.episodes} episodes: p50 ${history.p50Ms?.toFixed(1)} ms, p95 ${history.p95Ms?.toFixed(1)} ms (target < 200 ms)`,
       `weekend replay   ${weekend.units} units, Fri 15:00 to Mon 08:00: ${weekend.wallS.toFixed(1)} s wall time (target < 60 s)`,
