@@ -8,6 +8,8 @@ const TICK = 100; // USER_HZ on Linux
 const profile = [
   ...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : []),
   ...(process.env.BENCH_HEAP_PROF ? ['--heap-prof', `--heap-prof-dir=${process.env.BENCH_HEAP_PROF}`] : []),
+  // `BENCH_NODE_FLAGS="--flag …"`: more flags for every process (to try a V8 setting).
+  ...(process.env.BENCH_NODE_FLAGS ? process.env.BENCH_NODE_FLAGS.split(/\s+/).filter(Boolean) : []),
 ];
 
 export function cpuSeconds(pid: number): number {
