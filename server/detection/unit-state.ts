@@ -102,6 +102,13 @@ export function closeFold(fold: Fold, now: number): BaseState | null {
 }
 
 /** Protocol rule 8 at `now`, after the fold. */
+/** When contact counts as lost: `limit` after the last event, if that much silence has passed. */
+function silenceSince(lastEventTs: number | null, now: number, limit: number) {
+  return lastEventTs !== null && now - lastEventTs >= limit ? lastEventTs + limit : null;
+}
+
+const state = (name: UnitState['state'], since: number): UnitState => ({ state: name, since, purgeRemainingS: null });
+
 export function finishState(fold: Fold, lastEventTs: number | null, now: number): UnitState | null {
   const open = fold.open?.episode;
   if (open && open.outcome === 'pending') {
@@ -112,16 +119,13 @@ export function finishState(fold: Fold, lastEventTs: number | null, now: number)
   }
   const base = closeFold(fold, now);
   if (!base) return null;
-  const silence = (limit: number) =>
-    lastEventTs !== null && now - lastEventTs >= limit ? lastEventTs + limit : null;
-  const state = (name: UnitState['state'], since: number): UnitState => ({ state: name, since, purgeRemainingS: null });
   switch (base.name) {
     case 'keyOn': {
-      const lost = silence(KEY_ON_SILENCE_MS);
+      const lost = silenceSince(lastEventTs, now, KEY_ON_SILENCE_MS);
       return lost === null ? state('keyOn', base.since) : state('noContact', lost);
     }
     case 'safeToIsolate': {
-      const lost = silence(SAFE_SILENCE_MS);
+      const lost = silenceSince(lastEventTs, now, SAFE_SILENCE_MS);
       return lost === null ? state('safeToIsolate', base.since) : state('noContact', lost);
     }
     case 'undetermined':

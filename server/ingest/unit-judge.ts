@@ -21,6 +21,22 @@ export interface JudgeResult {
 
 const same = (a: Episode, b: Episode) => JSON.stringify(a) === JSON.stringify(b);
 
+type Write = (episodes: Episode[], stored: Map<string, StoredEpisode>) => void;
+
+/** Puts the judged episodes that differ from the stored ones into `stored` and `changed`, remembering what they were. */
+function writeChanged(episodes: Episode[], stored: Map<string, StoredEpisode>, changed: StoredEpisode[], previousVersions: Map<string, Episode>) {
+  for (const e of episodes) {
+    const key = positionKey(e.keyOff);
+    const old = stored.get(key);
+    if (old && same(old.episode, e)) continue;
+    if (old) previousVersions.set(key, old.episode);
+    // The same object sits in the memory and in `changed`: the batch's upsert fills in a new id.
+    const entry = { id: old?.id ?? 0, episode: e };
+    stored.set(key, entry);
+    changed.push(entry);
+  }
+}
+
 export async function judgeUnitInBatch(
   sequelize: Sequelize,
   t: Transaction,
@@ -46,19 +62,6 @@ export async function judgeUnitInBatch(
   const deleted: number[] = [];
   const previousVersions = new Map<string, Episode>();
 
-  const write = (episodes: Episode[], stored: Map<string, StoredEpisode>) => {
-    for (const e of episodes) {
-      const key = positionKey(e.keyOff);
-      const old = stored.get(key);
-      if (old && same(old.episode, e)) continue;
-      if (old) previousVersions.set(key, old.episode);
-      // The same object sits in the memory and in `changed`: the batch's upsert fills in a new id.
-      const entry = { id: old?.id ?? 0, episode: e };
-      stored.set(key, entry);
-      changed.push(entry);
-    }
-  };
-
   const now = clock(m);
   const input: JudgeInput = {
     profile: { purgeSeconds: m.profile.purgeSeconds, lossThresholdV: m.profile.lossThresholdV },
@@ -75,11 +78,11 @@ export async function judgeUnitInBatch(
     if (g.id) deleted.push(g.id);
     m.episodes.delete(positionKey(g.episode.keyOff));
   }
-  write(judgement.episodes, m.episodes);
+  writeChanged(judgement.episodes, m.episodes, changed, previousVersions);
   m.state = judgement.state;
 
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
-  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, write, deleted);
+  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, (episodes, stored) => writeChanged(episodes, stored, changed, previousVersions), deleted);
 
   applyWindow(m, win, input.events);
   return { memory: m, changed, deleted, before: previousVersions };
@@ -91,7 +94,7 @@ async function judgeOldStretch(
   m: UnitMemory,
   late: UnitEvent[],
   now: number,
-  write: (episodes: Episode[], stored: Map<string, StoredEpisode>) => void,
+  write: Write,
   deleted: number[],
 ) {
   const unitId = m.profile.unitId;
