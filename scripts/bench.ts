@@ -35,10 +35,7 @@ async function historyOnly(adminUrl: string) {
   try {
     const history = await historyQuery(live, P.historyTries);
     process.stdout.write(`history          a depot's 90-day page over ${history.episodes} episodes: p50 ${history.p50Ms?.toFixed(1)} ms, p95 ${history.p95Ms?.toFixed(1)} ms (target < 200 ms)\n`);
-    mkdirSync('bench-results', { recursive: true });
-    const file = join('bench-results', `bench-history-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
-    writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'history', params: P, history }, null, 2));
-    process.stdout.write(`results written to ${file}\n`);
+    writeResults('history-', { at: new Date().toISOString(), quick, only: 'history', params: P, history });
   } finally {
     await live.stop();
   }
@@ -54,14 +51,11 @@ async function weekendOnly(adminUrl: string) {
     walls.push(w.wallS);
   }
   process.stdout.write(`weekend replay   ${P.weekendUnits} units, Fri 15:00 to Mon 08:00: ${fmt(stats(walls), ' s', 1)} wall time (target < 60 s)\n`);
-  mkdirSync('bench-results', { recursive: true });
-  const file = join('bench-results', `bench-weekend-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
-  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'weekend', params: P, weekend: { units: P.weekendUnits, wallS: walls } }, null, 2));
-  process.stdout.write(`results written to ${file}\n`);
+  writeResults('weekend-', { at: new Date().toISOString(), quick, only: 'weekend', params: P, weekend: { units: P.weekendUnits, wallS: walls } });
 }
 
-/** The bare pipeline and the product at full speed, `runs` times each, nothing else. */
-async function throughputOnly(adminUrl: string) {
+/** The bare pipeline and the product at full speed, `runs` times each, one after the other. */
+async function throughputRuns(adminUrl: string) {
   const bareRuns: ThroughputFigures[] = [];
   const prodRuns: ThroughputFigures[] = [];
   for (let r = 0; r < runs; r++) {
@@ -70,12 +64,23 @@ async function throughputOnly(adminUrl: string) {
     say(`run ${r + 1}: product, ${P.gateways} gateways, ${P.durationS} s at full speed`);
     prodRuns.push(await productMax(adminUrl, r, P.gateways, P.durationS));
   }
+  return { bareRuns, prodRuns };
+}
+
+/** The results as JSON in bench-results/, named by the step and the time. */
+function writeResults(step: string, data: Record<string, unknown>) {
+  mkdirSync('bench-results', { recursive: true });
+  const file = join('bench-results', `bench-${step}${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
+  writeFileSync(file, JSON.stringify(data, null, 2));
+  process.stdout.write(`results written to ${file}\n`);
+}
+
+/** The bare pipeline and the product at full speed, `runs` times each, nothing else. */
+async function throughputOnly(adminUrl: string) {
+  const { bareRuns, prodRuns } = await throughputRuns(adminUrl);
   const lines = throughputLines(bareRuns, prodRuns);
   process.stdout.write(`${lines.join('\n')}\n`);
-  mkdirSync('bench-results', { recursive: true });
-  const file = join('bench-results', `bench-throughput-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
-  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'throughput', params: P, bareRuns, prodRuns }, null, 2));
-  process.stdout.write(`results written to ${file}\n`);
+  writeResults('throughput-', { at: new Date().toISOString(), quick, only: 'throughput', params: P, bareRuns, prodRuns });
 }
 
 /** CPU microseconds a process spent per committed message, over the runs. */
@@ -114,10 +119,7 @@ async function halfOnly(adminUrl: string) {
     await live.stop();
   }
   process.stdout.write(`${liveLines('half bare', half).join('\n')}\n`);
-  mkdirSync('bench-results', { recursive: true });
-  const file = join('bench-results', `bench-half-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
-  writeFileSync(file, JSON.stringify({ at: new Date().toISOString(), quick, only: 'half', params: P, half }, null, 2));
-  process.stdout.write(`results written to ${file}\n`);
+  writeResults('half-', { at: new Date().toISOString(), quick, only: 'half', params: P, half });
 }
 
 function liveLines(name: string, xs: LiveFigures[]) {
@@ -140,14 +142,7 @@ async function main() {
     if (only === 'weekend') return await weekendOnly(adminUrl);
     if (only === 'throughput') return await throughputOnly(adminUrl);
     if (only === 'half') return await halfOnly(adminUrl);
-    const bareRuns: ThroughputFigures[] = [];
-    const prodRuns: ThroughputFigures[] = [];
-    for (let r = 0; r < runs; r++) {
-      say(`run ${r + 1}: bare pipeline, ${P.gateways} gateways, ${P.durationS} s at full speed`);
-      bareRuns.push(await bare(adminUrl, r, P.gateways, P.durationS));
-      say(`run ${r + 1}: product, ${P.gateways} gateways, ${P.durationS} s at full speed`);
-      prodRuns.push(await productMax(adminUrl, r, P.gateways, P.durationS));
-    }
+    const { bareRuns, prodRuns } = await throughputRuns(adminUrl);
     const bareRate = stats(bareRuns.map((b) => b.msgsPerS))!;
     say(`live fleet: ${P.liveUnits} units`);
     const live = await startProduct(adminUrl, 'bench_live', P.liveUnits);
@@ -183,10 +178,7 @@ async function main() {
       '',
     ];
     process.stdout.write(lines.join('\n'));
-    mkdirSync('bench-results', { recursive: true });
-    const file = join('bench-results', `bench-${quick ? 'quick-' : ''}${new Date().toISOString().replace(/[:.]/g, '-')}.json`);
-    writeFileSync(file, JSON.stringify(out, null, 2));
-    process.stdout.write(`results written to ${file}\n`);
+    writeResults('', out);
   } finally {
     await pg.stop();
     rmSync(dir, { recursive: true, force: true });

@@ -7,17 +7,7 @@ import { startTestService, type TestService } from '../helpers/service';
 import { connectGateway, provision } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
 import { uplinkTopic } from '../../shared/protocol/topics';
-
-// A small seeded generator (mulberry32), so a failure can be replayed.
-function rng(seed: number) {
-  return () => {
-    seed |= 0;
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from '../helpers/rng';
 
 const TS = '2026-11-27T17:02:11.250Z';
 type Maker = (r: () => number, i: number) => { kind: 'telemetry' | 'can' | 'power'; body: Buffer | string };

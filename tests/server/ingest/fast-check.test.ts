@@ -6,16 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { CanSchema, PowerSchema, TelemetrySchema } from '../../../shared/protocol/messages';
 import { fastCan, fastPower, fastTelemetry } from '../../../server/ingest/fast-check';
 import { parseMessage } from '../../../server/ingest/parse-message';
-
-function rng(seed: number) {
-  return () => {
-    seed |= 0;
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from '../../helpers/rng';
 
 const MISSING = Symbol('missing');
 const TS = '2026-11-27T17:02:11.250Z';
