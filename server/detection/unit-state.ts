@@ -101,7 +101,6 @@ export function closeFold(fold: Fold, now: number): BaseState | null {
   return fold.open ? settledBase(fold.open.episode, now) : fold.base;
 }
 
-/** Protocol rule 8 at `now`, after the fold. */
 /** When contact counts as lost: `limit` after the last event, if that much silence has passed. */
 function silenceSince(lastEventTs: number | null, now: number, limit: number) {
   return lastEventTs !== null && now - lastEventTs >= limit ? lastEventTs + limit : null;
@@ -109,6 +108,7 @@ function silenceSince(lastEventTs: number | null, now: number, limit: number) {
 
 const state = (name: UnitState['state'], since: number): UnitState => ({ state: name, since, purgeRemainingS: null });
 
+/** Protocol rule 8 at `now`, after the fold. */
 export function finishState(fold: Fold, lastEventTs: number | null, now: number): UnitState | null {
   const open = fold.open?.episode;
   if (open && open.outcome === 'pending') {
