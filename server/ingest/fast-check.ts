@@ -3,12 +3,15 @@
 // they do not accept (null) goes to zod, which decides and gives the reason, so a refusal always reads the same.
 // tests/server/ingest/fast-check.test.ts holds the two to agreement over valid, edge and hostile payloads.
 import { MAX_FRAMES_PER_MESSAGE } from '../../shared/protocol/limits';
-import type { CanMessage, PowerMessage, Telemetry } from '../../shared/protocol/messages';
+import {
+  AMBIENT_C_LIMIT, CAN_DATA_PATTERN, CAN_ID_PATTERN, PowerSchema, ShutdownCauseSchema, SUPPLY_V_LIMIT,
+  type CanMessage, type PowerMessage, type Telemetry,
+} from '../../shared/protocol/messages';
 
 type Obj = Record<string, unknown>;
 
 const isCounter = (v: unknown): v is number => typeof v === 'number' && Number.isSafeInteger(v) && v >= 0;
-const isVolts = (v: unknown): v is number => typeof v === 'number' && v >= -1000 && v <= 1000;
+const isVolts = (v: unknown): v is number => typeof v === 'number' && v >= -SUPPLY_V_LIMIT && v <= SUPPLY_V_LIMIT;
 
 const DAYS = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 const leap = (y: number) => (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
@@ -44,12 +47,12 @@ export function fastTelemetry(m: Obj): Telemetry | null {
   const { boot, seq, ts, key, supplyV, ambientC, ecmAwake } = m;
   if (!isCounter(boot) || !isCounter(seq) || !isTimestamp(ts)) return null;
   if ((key !== 'on' && key !== 'off') || !isVolts(supplyV) || typeof ecmAwake !== 'boolean') return null;
-  if (ambientC !== undefined && ambientC !== null && !(typeof ambientC === 'number' && ambientC >= -100 && ambientC <= 100)) return null;
+  if (ambientC !== undefined && ambientC !== null && !(typeof ambientC === 'number' && ambientC >= -AMBIENT_C_LIMIT && ambientC <= AMBIENT_C_LIMIT)) return null;
   return { boot, seq, ts, key, supplyV, ambientC: ambientC ?? null, ecmAwake };
 }
 
-const SUPPLY_EVENTS = new Set(['supply-lost', 'supply-restored', 'boot']);
-const CAUSES = new Set(['supply-lost', 'sleep', 'watchdog', 'unknown']);
+const SUPPLY_EVENTS = new Set<string>(PowerSchema.shape.event.options);
+const CAUSES = new Set<string>(ShutdownCauseSchema.options);
 
 export function fastPower(m: Obj): PowerMessage | null {
   const { boot, seq, ts, event, supplyV, prevShutdown } = m;
@@ -65,9 +68,6 @@ export function fastPower(m: Obj): PowerMessage | null {
   return { boot, seq, ts, event: event as PowerMessage['event'], supplyV, prevShutdown: prev };
 }
 
-const HEX_ID = /^[0-9A-Fa-f]{8}$/;
-const HEX_DATA = /^(?:[0-9A-Fa-f]{2}){0,8}$/;
-
 export function fastCan(m: Obj): CanMessage | null {
   const { boot, seq, ts, frames } = m;
   if (!isCounter(boot) || !isCounter(seq) || !isTimestamp(ts)) return null;
@@ -76,7 +76,7 @@ export function fastCan(m: Obj): CanMessage | null {
   for (const f of frames) {
     if (typeof f !== 'object' || f === null || Array.isArray(f)) return null;
     const { t, id, data } = f as Obj;
-    if (!isTimestamp(t) || typeof id !== 'string' || !HEX_ID.test(id) || typeof data !== 'string' || !HEX_DATA.test(data)) return null;
+    if (!isTimestamp(t) || typeof id !== 'string' || !CAN_ID_PATTERN.test(id) || typeof data !== 'string' || !CAN_DATA_PATTERN.test(data)) return null;
     out.push({ t, id, data });
   }
   return { boot, seq, ts, frames: out };

@@ -8,22 +8,27 @@ export const TimestampSchema = z
   .refine((s) => !Number.isNaN(Date.parse(s)) && new Date(s).toISOString() === s, 'is not a real date and time');
 
 const Counter = z.number().int().nonnegative().max(Number.MAX_SAFE_INTEGER);
-const Volts = z.number().finite().min(-1000).max(1000);
+/** Bounds of the numbers (a sanity range, not the trade's: a reading outside is a broken sensor or a hostile payload). */
+export const SUPPLY_V_LIMIT = 1000;
+export const AMBIENT_C_LIMIT = 100;
+export const CAN_ID_PATTERN = /^[0-9A-Fa-f]{8}$/;
+export const CAN_DATA_PATTERN = /^(?:[0-9A-Fa-f]{2}){0,8}$/;
+const Volts = z.number().finite().min(-SUPPLY_V_LIMIT).max(SUPPLY_V_LIMIT);
 
 export const CommonFieldsSchema = z.object({ boot: Counter, seq: Counter, ts: TimestampSchema });
 
 export const TelemetrySchema = CommonFieldsSchema.extend({
   key: z.enum(['on', 'off']),
   supplyV: Volts,
-  ambientC: z.number().finite().min(-100).max(100).nullable().optional().transform((v) => v ?? null),
+  ambientC: z.number().finite().min(-AMBIENT_C_LIMIT).max(AMBIENT_C_LIMIT).nullable().optional().transform((v) => v ?? null),
   ecmAwake: z.boolean(),
 });
 export type Telemetry = z.infer<typeof TelemetrySchema>;
 
 export const CanFrameSchema = z.object({
   t: TimestampSchema,
-  id: z.string().regex(/^[0-9A-Fa-f]{8}$/, 'must be 8 hex digits'),
-  data: z.string().regex(/^(?:[0-9A-Fa-f]{2}){0,8}$/, 'must be 0 to 8 bytes as hex'),
+  id: z.string().regex(CAN_ID_PATTERN, 'must be 8 hex digits'),
+  data: z.string().regex(CAN_DATA_PATTERN, 'must be 0 to 8 bytes as hex'),
 });
 export type CanFrame = z.infer<typeof CanFrameSchema>;
 
