@@ -3,11 +3,9 @@ import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 
 const TICK = 100; // USER_HZ on Linux
-// `BENCH_CPU_PROF=dir` writes a V8 CPU profile of every process the benchmark starts into dir;
-// `BENCH_HEAP_PROF=dir` a sampling heap profile (what allocates, for the garbage collector's share).
+// `BENCH_CPU_PROF=dir` writes a V8 CPU profile of every process the benchmark starts into dir.
 const profile = [
   ...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : []),
-  ...(process.env.BENCH_HEAP_PROF ? ['--heap-prof', `--heap-prof-dir=${process.env.BENCH_HEAP_PROF}`] : []),
   // `BENCH_NODE_FLAGS="--flag …"`: more flags for every process (to try a V8 setting).
   ...(process.env.BENCH_NODE_FLAGS ? process.env.BENCH_NODE_FLAGS.split(/\s+/).filter(Boolean) : []),
 ];
