@@ -1,4 +1,4 @@
-import { useSearchParams } from 'react-router-dom';
+import { useAddressParams } from '../../lib/use-address-params';
 import { CautionNote } from '../../components/ui/caution-note';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
@@ -14,16 +14,10 @@ const control = CONTROL_CLASS;
 const SPANS = [7, 14, 30];
 
 export function BatteryPage() {
-  const [params, setParams] = useSearchParams();
+  const { params, set } = useAddressParams();
   const days = SPANS.includes(Number(params.get('days'))) ? Number(params.get('days')) : 14;
   const depot = params.get('depot') ?? '';
   const unit = params.get('unit');
-  const set = (k: string, v: string) => {
-    const next = new URLSearchParams(params);
-    if (v) next.set(k, v);
-    else next.delete(k);
-    setParams(next, { replace: true });
-  };
   const fleet = useBatteryFleet(days, depot || undefined);
   const depots = [...new Set((useUnits().data ?? []).map((u) => u.depot))].sort();
   return (

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { CautionNote } from '../../components/ui/caution-note';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
@@ -15,7 +15,8 @@ import { BoardTable } from '../../features/units/components/board-table';
 import { StateSummary } from '../../features/units/components/state-summary';
 import { UnitsFilters } from '../../features/units/components/units-filters';
 import { countStates } from '../../features/units/lib/count-states';
-import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
+import { depotsOf, filterAndSortUnits } from '../../features/units/lib/filter-units';
+import { useUnitFilters } from '../../features/units/lib/use-unit-filters';
 
 export function BoardPage() {
   const live = useStore(liveStatus) === 'live';
@@ -25,13 +26,10 @@ export function BoardPage() {
   // Every open alert, also those raised before this page was opened (the banner only takes new ones).
   const openAlerts = useAlerts({ status: 'open' });
   const role = useSession()?.user.role;
-  const [params, setParams] = useSearchParams();
-  const filters = readUnitFilters(params);
-  const setFilters = (f: UnitFilters) => setParams(writeUnitFilters(f), { replace: true });
+  const { filters, key: filterKey, update: setFilters } = useUnitFilters();
 
   const all = units.data;
   const depots = useMemo(() => depotsOf(all ?? []), [all]);
-  const filterKey = params.toString();
   // `filters` is read from the address, so the address string stands for it here.
   const shown = useMemo(() => filterAndSortUnits(all ?? [], filters), [all, filterKey]);
   const counts = useMemo(() => countStates(filters.depot ? (all ?? []).filter((u) => u.depot === filters.depot) : (all ?? [])), [all, filters.depot]);
@@ -62,14 +60,14 @@ export function BoardPage() {
           </div>
         }
       />
-      {all && <StateSummary counts={counts} selected={filters.state} onSelect={(state) => setFilters({ ...filters, state })} />}
+      {all && <StateSummary counts={counts} selected={filters.state} onSelect={(state) => setFilters({ state })} />}
       <UnitsFilters filters={filters} depots={depots} onChange={setFilters} />
       {units.isPending && <Loading label="Loading units…" />}
       {units.isError && <ErrorNotice title="Could not load the units" error={units.error} />}
       {all && (
         <>
           {units.isRefetchError && <ErrorNotice title="Refreshing failed; showing the last list received" error={units.error} />}
-          <BoardTable units={shown} sort={filters.sort} onSortChange={(key) => setFilters({ ...filters, sort: nextSort(filters.sort, key) })} />
+          <BoardTable units={shown} sort={filters.sort} onSortChange={(key) => setFilters((f) => ({ ...f, sort: nextSort(f.sort, key) }))} />
         </>
       )}
       <CautionNote className="mt-8" />

@@ -1,4 +1,5 @@
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link } from 'react-router-dom';
+import { useAddressParams } from '../../lib/use-address-params';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
 import { PageHeader } from '../../components/ui/page-header';
@@ -15,17 +16,11 @@ const control = CONTROL_CLASS;
 const WEEK_SPANS = [4, 8, 12, 26];
 
 export function ReportsPage() {
-  const [params, setParams] = useSearchParams();
+  const { params, set } = useAddressParams();
   const weekParam = params.get('week');
   const week = weekParam && isoWeekStart(weekParam) !== null ? weekParam : isoWeekLabel(Date.now());
   const weeks = WEEK_SPANS.includes(Number(params.get('weeks'))) ? Number(params.get('weeks')) : 8;
   const depot = params.get('depot') ?? '';
-  const set = (k: string, v: string) => {
-    const next = new URLSearchParams(params);
-    if (v) next.set(k, v);
-    else next.delete(k);
-    setParams(next, { replace: true });
-  };
   const report = useWeeklyReport({ week, weeks, depot: depot || undefined });
   const depots = [...new Set((useUnits().data ?? []).map((u) => u.depot))].sort();
   const r = report.data;

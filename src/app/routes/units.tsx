@@ -1,4 +1,3 @@
-import { useSearchParams } from 'react-router-dom';
 import { CautionNote } from '../../components/ui/caution-note';
 import { ErrorNotice } from '../../components/ui/error-notice';
 import { Loading } from '../../components/ui/loading';
@@ -11,14 +10,13 @@ import { StateSummary } from '../../features/units/components/state-summary';
 import { UnitsFilters } from '../../features/units/components/units-filters';
 import { UnitsTable } from '../../features/units/components/units-table';
 import { countStates } from '../../features/units/lib/count-states';
-import { depotsOf, filterAndSortUnits, readUnitFilters, writeUnitFilters, type UnitFilters } from '../../features/units/lib/filter-units';
+import { depotsOf, filterAndSortUnits } from '../../features/units/lib/filter-units';
+import { useUnitFilters } from '../../features/units/lib/use-unit-filters';
 
 export function UnitsPage() {
   // The live feed writes into the same cache; poll only while it is down.
   const units = useUnits({ refetchInterval: useStore(liveStatus) === 'live' ? false : 10_000 });
-  const [params, setParams] = useSearchParams();
-  const filters = readUnitFilters(params);
-  const setFilters = (f: UnitFilters) => setParams(writeUnitFilters(f), { replace: true });
+  const { filters, update: setFilters } = useUnitFilters();
 
   const all = units.data ?? [];
   // Recomputed only when the list or the address changes; the table's 1 s clock lives below this page.
@@ -42,7 +40,7 @@ export function UnitsPage() {
         <StateSummary
           counts={countStates(filters.depot ? all.filter((u) => u.depot === filters.depot) : all)}
           selected={filters.state}
-          onSelect={(state) => setFilters({ ...filters, state })}
+          onSelect={(state) => setFilters({ state })}
         />
       )}
       <UnitsFilters filters={filters} depots={depots} onChange={setFilters} />
@@ -55,7 +53,7 @@ export function UnitsPage() {
             units={shown}
             fetchedAt={units.dataUpdatedAt}
             sort={filters.sort}
-            onSortChange={(key) => setFilters({ ...filters, sort: nextSort(filters.sort, key) })}
+            onSortChange={(key) => setFilters((f) => ({ ...f, sort: nextSort(f.sort, key) }))}
           />
         </>
       )}

@@ -1,12 +1,13 @@
 import { STATE_LABELS, NO_DATA_LABEL, UNIT_STATES } from '../../../lib/unit-state';
 import type { StateFilter, UnitFilters } from '../lib/filter-units';
+import type { UnitFiltersChange } from '../lib/use-unit-filters';
 
 const control = 'rounded-md border border-line bg-raised px-3 py-2 text-base text-fg focus:border-accent focus:outline-none';
 
 export interface UnitsFiltersProps {
   filters: UnitFilters;
   depots: string[];
-  onChange: (next: UnitFilters) => void;
+  onChange: (change: UnitFiltersChange) => void;
 }
 
 export function UnitsFilters({ filters, depots, onChange }: UnitsFiltersProps) {
@@ -18,7 +19,7 @@ export function UnitsFilters({ filters, depots, onChange }: UnitsFiltersProps) {
           type="search"
           placeholder="Unit id or name"
           value={filters.query}
-          onChange={(e) => onChange({ ...filters, query: e.target.value })}
+          onChange={(e) => onChange({ query: e.target.value })}
           className={`${control} w-64`}
         />
       </label>
@@ -26,7 +27,7 @@ export function UnitsFilters({ filters, depots, onChange }: UnitsFiltersProps) {
         Depot
         <select
           value={filters.depot ?? ''}
-          onChange={(e) => onChange({ ...filters, depot: e.target.value || null })}
+          onChange={(e) => onChange({ depot: e.target.value || null })}
           className={control}
         >
           <option value="">All depots</option>
@@ -41,7 +42,7 @@ export function UnitsFilters({ filters, depots, onChange }: UnitsFiltersProps) {
         State
         <select
           value={filters.state ?? ''}
-          onChange={(e) => onChange({ ...filters, state: (e.target.value || null) as StateFilter | null })}
+          onChange={(e) => onChange({ state: (e.target.value || null) as StateFilter | null })}
           className={control}
         >
           <option value="">All states</option>
