@@ -153,7 +153,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
       ['/episodes', episodeRoutes()],
       ['/faults', faultRoutes()],
       ['/alerts', alertRoutes(ctx, publishAlert)],
-      ['/metrics', metricsRoutes(() => ({ worker: config.INGEST_WORKER_ID, ingest: ingest.counters, judgeErrors: ingest.judgeErrors.count, backlog: ingest.backlog, broker: broker.counters, liveClients: feed?.peers() ?? 0, relay: relay ? { connected: relay.connected(), ...relay.counters } : null }))],
+      ['/metrics', metricsRoutes(() => ({ worker: config.INGEST_WORKER_ID, ingest: ingest.counters, judgeErrors: ingest.judgeErrors.count, backlog: ingest.backlog, ingestPausedSince: ingest.pausedSince, broker: broker.counters, liveClients: feed?.peers() ?? 0, relay: relay ? { connected: relay.connected(), ...relay.counters } : null }))],
       ['/switch-pages', switchAdminRoutes(ctx, (unitId) => feed?.dropSwitch(unitId))],
       ['/work-orders', workOrderRoutes(ctx)],
       ['/roster', rosterRoutes(ctx)],

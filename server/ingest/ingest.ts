@@ -46,21 +46,49 @@ export function createIngest(opts: IngestOptions) {
 
   const batch = new GroupCommit<IngestItem>({ maxItems: opts.batchMax, maxAgeMs: opts.batchMs, flush: flushOrIsolate });
 
+  /** Set while the database cannot be reached: the batch waits for it, and nothing is acknowledged meanwhile. */
+  let pausedSince: number | null = null;
+  let stopping = false;
+  let wakeRetry: (() => void) | null = null;
+
   /**
    * One bad row must not hold back the good ones beside it: if a batch fails while the database is up,
    * its items are written one by one and only the one that cannot be written is refused (not acknowledged).
+   * While the database is away the batch waits and tries again (back-off up to 2 s): the ingest pauses,
+   * PUBACKs wait, the backlog limit stops the reading, and the gateways' connections stay open.
    */
   async function flushOrIsolate(items: IngestItem[]): Promise<(Error | null)[] | void> {
-    try {
-      return await flush(items);
-    } catch (err) {
-      const up = await sequelize.query('SELECT 1').then(() => true, () => false);
-      if (!up || items.length === 1) throw err;
-      log.warn({ err, items: items.length }, 'a batch failed: writing its items one by one');
-      const outcome: (Error | null)[] = [];
-      for (const item of items) outcome.push(await flush([item]).then(() => null, (e: Error) => e));
-      return outcome;
+    for (let waitMs = 100; ; waitMs = Math.min(waitMs * 2, 2000)) {
+      try {
+        const done = await flush(items);
+        if (pausedSince !== null) {
+          log.info({ pausedMs: wallNow() - pausedSince }, 'database back: ingest resumed');
+          pausedSince = null;
+        }
+        return done;
+      } catch (err) {
+        const up = await sequelize.query('SELECT 1').then(() => true, () => false);
+        if (up) return isolate(items, err as Error);
+        if (stopping) throw err;
+        if (pausedSince === null) {
+          pausedSince = wallNow();
+          log.warn({ err }, 'database unreachable: ingest paused until it is back (nothing is acknowledged meanwhile)');
+        }
+        await new Promise<void>((res) => {
+          const timer = setTimeout(res, waitMs);
+          wakeRetry = () => (clearTimeout(timer), res());
+        });
+        wakeRetry = null;
+      }
     }
+  }
+
+  async function isolate(items: IngestItem[], err: Error): Promise<(Error | null)[]> {
+    if (items.length === 1) throw err;
+    log.warn({ err, items: items.length }, 'a batch failed: writing its items one by one');
+    const outcome: (Error | null)[] = [];
+    for (const item of items) outcome.push(await flush([item]).then(() => null, (e: Error) => e));
+    return outcome;
   }
 
   async function flush(items: IngestItem[]) {
@@ -221,8 +249,15 @@ export function createIngest(opts: IngestOptions) {
     get backlog() {
       return batch.backlog;
     },
+    /** Since when (wall ms) the ingest waits for the database, or null. */
+    get pausedSince() {
+      return pausedSince;
+    },
     async stop() {
       if (ticker) clearInterval(ticker);
+      // A batch waiting for an absent database gives up now: unacknowledged, the gateways send it again.
+      stopping = true;
+      wakeRetry?.();
       await batch.drain();
     },
   };
