@@ -2,13 +2,13 @@
 // own PostgreSQL, broker and service. Prints the figures and writes them to bench-results/*.json.
 // `npm run bench -- --only history [--quick]` runs the history step alone (same fleet size and data);
 // `--only weekend` the weekend replay alone, `--runs N` times; `--only throughput` the bare pipeline and the
-// product at full speed alone; `--only half [--rate N]` the live fleet at half the bare ceiling alone (the
-// ceiling measured first unless --rate gives the load in messages/s).
+// product at full speed alone; `--only half [--rate N] [--units N]` half the bare ceiling alone (the ceiling
+// measured first unless --rate gives the load in messages/s), over the ceiling's gateways unless --units.
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { startLocalPostgres } from './lib/local-postgres';
-import { bare, historyQuery, productLive, productMax, startProduct, weekendReplay, type LiveFigures, type ThroughputFigures } from './bench/scenarios';
+import { bare, historyQuery, productLive, productMax, startProduct, weekendReplay, type LiveFigures, type ServiceUnderTest, type ThroughputFigures } from './bench/scenarios';
 
 const args = process.argv.slice(2);
 const quick = args.includes('--quick');
@@ -100,7 +100,38 @@ function throughputLines(bareRuns: ThroughputFigures[], prodRuns: ThroughputFigu
   ];
 }
 
-/** The live fleet at half the bare ceiling (or at --rate), `runs` times, with the board watching. */
+/**
+ * Half the bare ceiling, `runs` times: the product with the board watching, over `live` (a started fleet,
+ * the load over all of it) or over `units` gateways of a fleet started and stopped here, with probe
+ * gateways of their own beside them (fresh ones each run). The bare pipeline at the same load goes beside
+ * it (bareAt).
+ */
+async function halfRuns(adminUrl: string, rate: number, units: number, live: ServiceUnderTest | null, boot0: number) {
+  const probes = Math.min(P.events, units);
+  const s = live ?? (await startProduct(adminUrl, `bench_half_${units}`, units + probes * runs));
+  const product: LiveFigures[] = [];
+  try {
+    for (let r = 0; r < runs; r++) {
+      say(`run ${r + 1}: product, ${units} gateways at ${Math.round(rate)} messages/s and ${probes} probes, board watching`);
+      const at = live ? { probeFrom: (boot0 - 1 + r) * probes } : { probeFrom: units + r * probes, loadCount: units };
+      product.push(await productLive(s, { rate, durationS: P.liveS, probes, ...at, boot: boot0 + r }));
+    }
+  } finally {
+    if (!live) await s.stop();
+  }
+  return { units, rate, product, bare: [] as ThroughputFigures[] };
+}
+
+/** The bare pipeline at the load of `h` over as many connections, `runs` times (no product running meanwhile). */
+async function bareAt(adminUrl: string, h: Half) {
+  for (let r = 0; r < runs; r++) {
+    say(`run ${r + 1}: bare pipeline, ${h.units} gateways at ${Math.round(h.rate)} messages/s`);
+    h.bare.push(await bare(adminUrl, 100 + r, h.units, P.liveS, h.rate));
+  }
+}
+type Half = Awaited<ReturnType<typeof halfRuns>>;
+
+/** The half-ceiling step alone (the ceiling measured first unless --rate gives it), over --units gateways (default: the ceiling's). */
 async function halfOnly(adminUrl: string) {
   const rateArg = args.indexOf('--rate');
   let rate = rateArg >= 0 ? Number(args[rateArg + 1]) : NaN;
@@ -108,25 +139,27 @@ async function halfOnly(adminUrl: string) {
     say(`bare pipeline, ${P.gateways} gateways, ${P.durationS} s at full speed (for the ceiling)`);
     rate = (await bare(adminUrl, 0, P.gateways, P.durationS)).msgsPerS / 2;
   }
-  const live = await startProduct(adminUrl, 'bench_half', P.liveUnits);
-  const half: LiveFigures[] = [];
-  try {
-    for (let r = 0; r < runs; r++) {
-      say(`run ${r + 1}: ${P.liveUnits} units at ${Math.round(rate)} messages/s`);
-      half.push(await productLive(live, { rate, durationS: P.liveS, eventGateways: P.events, boot: r + 1 }));
-    }
-  } finally {
-    await live.stop();
-  }
-  process.stdout.write(`${liveLines('half bare', half).join('\n')}\n`);
+  const unitsArg = args.indexOf('--units');
+  const units = unitsArg >= 0 ? Number(args[unitsArg + 1]) : P.gateways;
+  const half = await halfRuns(adminUrl, rate, units, null, 1);
+  await bareAt(adminUrl, half);
+  process.stdout.write(`${halfLines('half ceiling', half).join('\n')}\n`);
   writeResults('half-', { at: new Date().toISOString(), quick, only: 'half', params: P, half });
 }
 
 function liveLines(name: string, xs: LiveFigures[]) {
   return [
-    `${name.padEnd(16)} ${P.liveUnits} units at ${Math.round(xs[0].rate)} msg/s: committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,
+    `${name.padEnd(16)} ${xs[0].units} gateways + ${xs[0].probes} probes, ${Math.round(xs[0].rate)} msg/s asked (offered ${fmt(stats(xs.map((x) => x.offeredPerS)))}): committed ${fmt(stats(xs.map((x) => x.committedPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(xs.map((x) => x.commitP50Ms)), ' ms', 1)}, p99 ${fmt(stats(xs.map((x) => x.commitP99Ms)), ' ms', 1)}`,
     `                 publish→board key-off p50 ${fmt(stats(xs.map((x) => x.keyOffBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.keyOffBoardP99Ms)), ' ms')}; supply loss p50 ${fmt(stats(xs.map((x) => x.supplyLossBoardP50Ms)), ' ms')}, p99 ${fmt(stats(xs.map((x) => x.supplyLossBoardP99Ms)), ' ms')}; events not seen ${xs.reduce((s, x) => s + x.eventsMissing, 0)}`,
     `                 service RSS ${fmt(stats(xs.map((x) => x.serviceRssMb)), ' MB')}, CPU s: service ${fmt(stats(xs.map((x) => x.cpu.service)), '', 1)}, postgres ${fmt(stats(xs.map((x) => x.cpu.postgres)), '', 1)}, publishers ${fmt(stats(xs.map((x) => x.cpu.publishers)), '', 1)}`,
+  ];
+}
+
+function halfLines(name: string, h: Half) {
+  const b = h.bare;
+  return [
+    ...liveLines(name, h.product),
+    `  bare, same load committed ${fmt(stats(b.map((x) => x.msgsPerS)), ' msg/s')}, publish→commit p50 ${fmt(stats(b.map((x) => x.p50Ms)), ' ms', 1)}, p99 ${fmt(stats(b.map((x) => x.p99Ms)), ' ms', 1)}; CPU s: pipeline ${fmt(stats(b.map((x) => x.cpu.pipeline)), '', 1)}, postgres ${fmt(stats(b.map((x) => x.cpu.postgres)), '', 1)}, publishers ${fmt(stats(b.map((x) => x.cpu.publishers)), '', 1)}`,
   ];
 }
 
@@ -147,22 +180,25 @@ async function main() {
     say(`live fleet: ${P.liveUnits} units`);
     const live = await startProduct(adminUrl, 'bench_live', P.liveUnits);
     const normal: LiveFigures[] = [];
-    const half: LiveFigures[] = [];
     // The fleet at its normal pace first: an overloaded run leaves a backlog that would spoil the next one.
     for (let r = 0; r < runs; r++) {
       say(`run ${r + 1}: ${P.liveUnits} units, one sample every 5 s each, board watching`);
-      normal.push(await productLive(live, { rate: P.liveUnits / 5, durationS: P.liveS, eventGateways: P.events, boot: r + 1 }));
+      normal.push(await productLive(live, { rate: P.liveUnits / 5, durationS: P.liveS, probes: P.events, probeFrom: r * P.events, boot: r + 1 }));
     }
-    for (let r = 0; r < runs; r++) {
-      say(`run ${r + 1}: at half the bare ceiling (${Math.round(bareRate.median / 2)} messages/s)`);
-      half.push(await productLive(live, { rate: bareRate.median / 2, durationS: P.liveS, eventGateways: P.events, boot: runs + r + 1 }));
-    }
+    // Half the ceiling over the whole live fleet's connections (reported beside the bare pipeline at that load) ...
+    say(`half the bare ceiling (${Math.round(bareRate.median / 2)} messages/s) over the live fleet`);
+    const halfFleet = await halfRuns(adminUrl, bareRate.median / 2, P.liveUnits, live, runs + 1);
     say('history: 90 days of purges for every unit, a depot\'s history page');
     const history = await historyQuery(live, P.historyTries);
     await live.stop();
+    // ... and over the connections the ceiling was measured on (the target's load).
+    say(`half the bare ceiling over the ceiling's ${P.gateways} gateways`);
+    const half = await halfRuns(adminUrl, bareRate.median / 2, P.gateways, null, 1);
+    await bareAt(adminUrl, half);
+    await bareAt(adminUrl, halfFleet);
     say(`weekend replay: ${P.weekendUnits} units`);
     const weekend = await weekendReplay(adminUrl, P.weekendUnits);
-    Object.assign(out, { bareRuns, prodRuns, normal, half, history, weekend: { units: weekend.units, wallS: weekend.wallS } });
+    Object.assign(out, { bareRuns, prodRuns, normal, half, halfFleet, history, weekend: { units: weekend.units, wallS: weekend.wallS } });
 
     const lines = [
       '',
@@ -171,7 +207,8 @@ async function main() {
       ...throughputLines(bareRuns, prodRuns),
       '',
       ...liveLines('live', normal),
-      ...liveLines('half bare', half),
+      ...halfLines('half ceiling', half),
+      ...halfLines('half, fleet', halfFleet),
       '',
       `history          a depot's 90-day page over ${history.episodes} episodes: p50 ${history.p50Ms?.toFixed(1)} ms, p95 ${history.p95Ms?.toFixed(1)} ms (target < 200 ms)`,
       `weekend replay   ${weekend.units} units, Fri 15:00 to Mon 08:00: ${weekend.wallS.toFixed(1)} s wall time (target < 60 s)`,

@@ -12,7 +12,11 @@ interface Plan {
   rate?: number;
   window?: number;
   durationS: number;
-  /** Gateways that also do a key-off and, 10 s later, a supply loss (rate mode). */
+  /**
+   * Rate mode: the first this many gateways are probes, apart from the load: each sends a sample every
+   * 5 s like a truck, keys off once and 10 s later loses its supply (the isolator opened), then is silent
+   * (no power). The rest carry `rate`.
+   */
   eventGateways?: number;
   /** The gateways' boot counter for this run (a later run is a later boot, so nothing repeats a (boot, seq)). */
   boot?: number;
@@ -92,9 +96,33 @@ async function main() {
     });
   } else {
     const rate = plan.rate ?? 1000;
-    const evented = new Set(gws.slice(0, plan.eventGateways ?? 0).map((g) => g.id));
-    // Events start after a warm-up of a fifth of the run, spread over the next half.
-    const eventAt = new Map([...evented].map((id, i) => [id, started + plan.durationS * 200 + (i * plan.durationS * 500) / Math.max(1, evented.size)]));
+    const probes = gws.slice(0, plan.eventGateways ?? 0);
+    const load = gws.slice(probes.length);
+    if (!load.length) throw new Error('rate mode needs gateways beyond the probes to carry the load');
+    // Key-offs start after a warm-up of a fifth of the run, spread over the next half.
+    const keyOffAt = probes.map((_, i) => started + plan.durationS * 200 + (i * plan.durationS * 500) / probes.length);
+    const timers: NodeJS.Timeout[] = [];
+    probes.forEach((g, i) => {
+      let silent = false;
+      const sample = () => {
+        if (silent || Date.now() >= end) return;
+        if (g.key === 'on' && Date.now() >= keyOffAt[i]) {
+          g.key = 'off';
+          events.push({ gatewayId: g.id, kind: 'keyOff', at: Date.now() });
+          send(g, 'telemetry', telemetry(g, 'off'));
+          timers.push(setTimeout(() => {
+            silent = true;
+            events.push({ gatewayId: g.id, kind: 'supplyLost', at: Date.now() });
+            send(g, 'power', JSON.stringify({ boot: plan.boot ?? 1, seq: g.seq++, ts: new Date().toISOString(), event: 'supply-lost', supplyV: 1.2 }));
+          }, 10_000));
+          return;
+        }
+        send(g, 'telemetry', telemetry(g, g.key));
+      };
+      // A sample every 5 s, staggered over the probes; the key-off goes at its own time.
+      timers.push(setTimeout(() => (sample(), timers.push(setInterval(sample, 5000))), (i * 5000) / probes.length));
+      timers.push(setTimeout(sample, Math.max(0, keyOffAt[i] - Date.now())));
+    });
     let next = 0;
     const tickMs = 10;
     await new Promise<void>((done) => {
@@ -104,25 +132,17 @@ async function main() {
           clearInterval(timer);
           return done();
         }
-        const due = Math.round((rate * tickMs) / 1000);
+        // As many as the rate asks for by now: a late tick (a busy event loop) sends more, so the offered
+        // rate is the rate asked for, not less.
+        const due = Math.floor((rate * (now - started)) / 1000) - next;
         for (let k = 0; k < due; k++) {
-          const g = gws[next++ % gws.length];
-          const at = eventAt.get(g.id);
-          if (at !== undefined && now >= at && g.key === 'on') {
-            g.key = 'off';
-            events.push({ gatewayId: g.id, kind: 'keyOff', at: Date.now() });
-            send(g, 'telemetry', telemetry(g, 'off'));
-            setTimeout(() => {
-              events.push({ gatewayId: g.id, kind: 'supplyLost', at: Date.now() });
-              send(g, 'power', JSON.stringify({ boot: plan.boot ?? 1, seq: g.seq++, ts: new Date().toISOString(), event: 'supply-lost', supplyV: 1.2 }));
-            }, 10_000);
-            continue;
-          }
-          send(g, 'telemetry', telemetry(g, g.key));
+          const g = load[next++ % load.length];
+          send(g, 'telemetry', telemetry(g, 'on'));
         }
       }, tickMs);
     });
     await new Promise((r) => setTimeout(r, 11_000)); // the last supply losses
+    for (const t of timers) clearInterval(t);
   }
   const deadline = Date.now() + 30_000;
   while (acked + failed < published && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));

@@ -38,7 +38,8 @@ export interface ThroughputFigures {
   messages: number;
 }
 
-export async function bare(adminUrl: string, run: number, gateways: number, durationS: number): Promise<ThroughputFigures> {
+/** The bare pipeline over `gateways` connections: at full speed, or at `rate` messages/s spread over them. */
+export async function bare(adminUrl: string, run: number, gateways: number, durationS: number, rate?: number): Promise<ThroughputFigures> {
   const db = await createDatabase(adminUrl, `bench_bare_${run}`);
   const port = await freePort();
   let ready = false;
@@ -47,9 +48,10 @@ export async function bare(adminUrl: string, run: number, gateways: number, dura
   const gws = Array.from({ length: gateways }, (_, i) => ({ id: `bare-gw-${i}`, secret: 'x', unitId: '' }));
   const pg0 = postgresCpu(PG_SYSTEM_USER);
   const c0 = cpuOf(child);
-  const { result } = await publish(`mqtt://127.0.0.1:${port}`, gws, { mode: 'max', window: 20, durationS });
+  const plan = rate === undefined ? { mode: 'max', window: 20, durationS } : { mode: 'rate', rate, durationS };
+  const { result } = await publish(`mqtt://127.0.0.1:${port}`, gws, plan);
   const figures = {
-    msgsPerS: result.acked / result.elapsedS, p50Ms: result.p50, p99Ms: result.p99, failed: result.failed, messages: result.acked,
+    msgsPerS: result.acked / (rate === undefined ? result.elapsedS : durationS), p50Ms: result.p50, p99Ms: result.p99, failed: result.failed, messages: result.acked,
     cpu: { pipeline: cpuOf(child) - c0, postgres: postgresCpu(PG_SYSTEM_USER) - pg0, publishers: result.cpuS }, rssMb: rssOf(child),
   };
   await child.stop();
@@ -96,25 +98,31 @@ export async function productMax(adminUrl: string, run: number, gateways: number
 }
 
 export interface LiveFigures {
-  rate: number; units: number; committedPerS: number; commitP50Ms: number | null; commitP99Ms: number | null;
+  rate: number; units: number; probes: number; offeredPerS: number; committedPerS: number; commitP50Ms: number | null; commitP99Ms: number | null;
   keyOffBoardP50Ms: number | null; keyOffBoardP99Ms: number | null; supplyLossBoardP50Ms: number | null; supplyLossBoardP99Ms: number | null;
   eventsMissing: number; serviceRssMb: number; cpu: Record<string, number>;
 }
 
-/** The fleet live at a rate, the board watching: publish -> committed and publish -> board state change. */
-export async function productLive(s: ServiceUnderTest, opts: { rate: number; durationS: number; eventGateways: number; boot: number }): Promise<LiveFigures> {
+/**
+ * The fleet live at a rate, the board watching: publish -> committed and publish -> board state change.
+ * `probes` gateways from `probeFrom` on key off and lose supply (see the publisher); the load goes over
+ * the first `loadCount` gateways (default: all the others).
+ */
+export async function productLive(s: ServiceUnderTest, opts: { rate: number; durationS: number; probes: number; probeFrom: number; loadCount?: number; boot: number }): Promise<LiveFigures> {
   const board = await observe(s.url, s.token);
   const pg0 = postgresCpu(PG_SYSTEM_USER);
   const c0 = cpuOf(s.child);
-  const offset = (opts.boot - 1) * opts.eventGateways;
-  const gws = [...s.gateways.slice(offset), ...s.gateways.slice(0, offset)];
-  const { result } = await publish(s.mqttUrl, gws, { mode: 'rate', rate: opts.rate, durationS: opts.durationS, eventGateways: opts.eventGateways, boot: opts.boot });
+  const probes = s.gateways.slice(opts.probeFrom, opts.probeFrom + opts.probes);
+  if (probes.length < opts.probes) throw new Error(`the fleet has no ${opts.probes} probe gateways from ${opts.probeFrom}`);
+  const isProbe = new Set(probes);
+  const load = s.gateways.slice(0, opts.loadCount ?? s.gateways.length).filter((g) => !isProbe.has(g));
+  const { result } = await publish(s.mqttUrl, [...probes, ...load], { mode: 'rate', rate: opts.rate, durationS: opts.durationS, eventGateways: probes.length, boot: opts.boot });
   await new Promise((r) => setTimeout(r, 1000));
   board.close();
   const unitOf = new Map(s.gateways.map((g) => [g.id, g.unitId]));
   const lat = eventLatencies(result.events, board.seen, (gw) => unitOf.get(gw)!);
   return {
-    rate: opts.rate, units: s.gateways.length, committedPerS: result.acked / opts.durationS, commitP50Ms: result.p50, commitP99Ms: result.p99,
+    rate: opts.rate, units: load.length, probes: probes.length, offeredPerS: result.published / opts.durationS, committedPerS: result.acked / opts.durationS, commitP50Ms: result.p50, commitP99Ms: result.p99,
     keyOffBoardP50Ms: quantile(lat.keyOff, 0.5), keyOffBoardP99Ms: quantile(lat.keyOff, 0.99),
     supplyLossBoardP50Ms: quantile(lat.supplyLost, 0.5), supplyLossBoardP99Ms: quantile(lat.supplyLost, 0.99),
     eventsMissing: lat.missing, serviceRssMb: rssOf(s.child),
