@@ -5,7 +5,7 @@ import { GroupCommit } from './group-commit';
 import { GatewayDirectory } from './gateway-directory';
 import { createAccept, type IngestCounters } from './accept';
 import type { IngestItem, MessageItem, QuarantineItem } from './items';
-import { insertMessages, insertQuarantine, messageKey } from './store';
+import { CopyInBatch, insertMessages, insertQuarantine, messageKey } from './store';
 import { judgeUnitInBatch, type JudgeResult } from './unit-judge';
 import { judgeCan, linkSpan, relinkFaults, type CanOutcome } from './unit-faults';
 import { emptyWrites, writeBatch, type BatchWrites } from './batch-writes';
@@ -91,12 +91,22 @@ export function createIngest(opts: IngestOptions) {
     return outcome;
   }
 
+  /** A batch whose COPY met a stored copy is written again, copies told apart (store.ts). */
   async function flush(items: IngestItem[]) {
+    try {
+      return await flushOnce(items, false);
+    } catch (err) {
+      if (!(err instanceof CopyInBatch)) throw err;
+      return await flushOnce(items, true);
+    }
+  }
+
+  async function flushOnce(items: IngestItem[], dedupe: boolean) {
     const messages = items.filter((i): i is MessageItem => i.type === 'message');
     const quarantined = items.filter((i): i is QuarantineItem => i.type === 'quarantine');
     const ticks = new Set(items.flatMap((i) => (i.type === 'tick' ? [i.unitId] : [])));
     const outcome = await sequelize.transaction(async (t) => {
-      const fresh = await insertMessages(sequelize, t, messages);
+      const fresh = await insertMessages(sequelize, t, messages, dedupe);
       await insertQuarantine(sequelize, t, quarantined);
       const byUnit = new Map<string, MessageItem[]>();
       const seen = new Set<string>();

@@ -36,26 +36,34 @@ function copyRows(items: MessageItem[]): string {
 
 const UNIQUE_VIOLATION = '23505';
 
+/** A batch's COPY met a row already stored (a redelivered copy): the transaction is aborted and goes again with `dedupe`. */
+export class CopyInBatch extends Error {
+  constructor(cause: unknown) {
+    super('the batch holds a message already stored', { cause });
+  }
+}
+
 /**
  * Inserts the batch's messages and tells which were new (the rest were duplicates, recognised by the
  * primary key). The usual batch holds no copy: its rows go by COPY, the cheapest way into PostgreSQL, and
- * all are new. COPY cannot skip a row that exists, so a batch with a copy in it fails as a whole; then,
- * back at the savepoint taken before, the rows go as one JSON document that PostgreSQL unpacks
- * (jsonb_to_recordset) with ON CONFLICT DO NOTHING, and the rows this transaction wrote (xmin) are listed.
+ * all are new. COPY cannot skip a row that exists, so a batch with a copy in it fails as a whole, and so
+ * does its transaction (CopyInBatch): the caller runs it again with `dedupe`, and then the rows go as one
+ * JSON document that PostgreSQL unpacks (jsonb_to_recordset) with ON CONFLICT DO NOTHING, and the rows
+ * this transaction wrote (xmin) are listed. (No savepoint on the usual path: it would cost a round trip
+ * to the database in every batch for the rare one with a copy.)
  */
-export async function insertMessages(sequelize: Sequelize, t: Transaction, items: MessageItem[]): Promise<FreshMessages> {
+export async function insertMessages(sequelize: Sequelize, t: Transaction, items: MessageItem[], dedupe = false): Promise<FreshMessages> {
   if (items.length === 0) return { all: true, size: 0 };
   // Straight through the transaction's own pg connection: Sequelize's result handling costs more than the insert.
   const connection = (t as unknown as { connection: RawConnection }).connection;
-  await connection.query('SAVEPOINT raw_rows');
-  try {
-    const copy = connection.query(copyFrom('COPY messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at) FROM STDIN'));
-    await pipeline(Readable.from([copyRows(items)]), copy);
-    return { all: true, size: items.length };
-  } catch (err) {
-    if ((err as { code?: string }).code !== UNIQUE_VIOLATION) throw err;
-    // Released too: what follows belongs to the transaction itself (its xmin is the one listed below).
-    await connection.query('ROLLBACK TO SAVEPOINT raw_rows; RELEASE SAVEPOINT raw_rows');
+  if (!dedupe) {
+    try {
+      const copy = connection.query(copyFrom('COPY messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at) FROM STDIN'));
+      await pipeline(Readable.from([copyRows(items)]), copy);
+      return { all: true, size: items.length };
+    } catch (err) {
+      throw (err as { code?: string }).code === UNIQUE_VIOLATION ? new CopyInBatch(err) : err;
+    }
   }
   const rows = items.map((m) => ({ g: m.gatewayId, b: m.boot, s: m.seq, u: m.unitId, st: m.stream, k: m.kind, ts: m.payload.ts, p: m.payload, r: m.receivedAt }));
   const doc = JSON.stringify(rows);
