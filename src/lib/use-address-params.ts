@@ -16,7 +16,9 @@ export function useAddressParams() {
   const update = (change: (current: URLSearchParams) => URLSearchParams) => {
     const ours = written.current?.keys.has(key) ? written.current : null;
     const next = change(new URLSearchParams(ours ? ours.latest : params));
-    const keys = ours ? ours.keys : new Set([key]);
+    // Once the render has caught up with the last change, only what comes after it is ours to build on.
+    const caughtUp = ours && key === ours.latest.toString();
+    const keys = ours && !caughtUp ? ours.keys : new Set([key]);
     keys.add(next.toString());
     written.current = { keys, latest: next };
     setParams(next, { replace: true });
