@@ -79,9 +79,10 @@ export class GroupCommit<T> {
       this.roomWaiters = this.roomWaiters.filter((w) => (this.backlog < w.limit ? (w.resolve(), false) : true));
       // What arrived during the write goes next, at once; then the callers hear of this batch.
       if (this.current.length) this.cut();
-      // Chained: a batch written while the one before is still being settled must not hide it from drain().
-      const settled = settleInSlices(batch, settle);
-      this.settling = Promise.all([this.settling, settled]).then(() => {});
+      // Chained: a batch's callers hear of it only after the batch before has been settled to its last
+      // slice, so they are settled in the order they came (MQTT 3.1.1 §4.6: PUBACKs in the order of the
+      // PUBLISH packets), and drain() waits for both.
+      this.settling = this.settling.then(() => settleInSlices(batch, settle));
     })();
   }
 }

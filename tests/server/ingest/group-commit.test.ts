@@ -30,6 +30,15 @@ describe('GroupCommit', () => {
     expect(order).toEqual(Array.from({ length: 2600 }, (_, i) => i));
   });
 
+  it('settles a batch\'s callers only after the batch before it, even when its write is quicker than their settling', async () => {
+    // MQTT 3.1.1 §4.6: a receiver sends PUBACKs in the order the PUBLISH packets came. Here the second
+    // batch is written at once, while the first is still being settled a slice per turn of the event loop.
+    const g = new GroupCommit<number>({ maxItems: 1000, maxAgeMs: 5, flush: async () => {} });
+    const order: number[] = [];
+    await Promise.all(Array.from({ length: 2000 }, (_, i) => g.add(i).then(() => order.push(i))));
+    expect(order).toEqual(Array.from({ length: 2000 }, (_, i) => i));
+  });
+
   it('cuts at the age when the size is not reached', async () => {
     const flushed: number[][] = [];
     const g = new GroupCommit<number>({ maxItems: 1000, maxAgeMs: 20, flush: async (items) => void flushed.push(items) });
