@@ -1,8 +1,9 @@
+import { CONTROL_CLASS } from '../../../components/ui/depot-select';
 import { OUTCOMES } from '../../../../shared/api/history';
 import type { HistoryFilters } from '../lib/history-params';
 import { OUTCOME_WORDS } from '../lib/words';
 
-const control = 'rounded-md border border-line bg-raised px-3 py-2 text-base text-fg focus:border-accent focus:outline-none';
+const control = CONTROL_CLASS;
 
 export interface HistoryFiltersProps {
   filters: HistoryFilters;

@@ -1,8 +1,9 @@
+import { CONTROL_CLASS } from '../../../components/ui/depot-select';
 import { STATE_LABELS, NO_DATA_LABEL, UNIT_STATES } from '../../../lib/unit-state';
 import type { StateFilter, UnitFilters } from '../lib/filter-units';
 import type { UnitFiltersChange } from '../lib/use-unit-filters';
 
-const control = 'rounded-md border border-line bg-raised px-3 py-2 text-base text-fg focus:border-accent focus:outline-none';
+const control = CONTROL_CLASS;
 
 export interface UnitsFiltersProps {
   filters: UnitFilters;
