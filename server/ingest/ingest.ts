@@ -5,7 +5,7 @@ import { GroupCommit } from './group-commit';
 import { GatewayDirectory } from './gateway-directory';
 import { createAccept, type IngestCounters } from './accept';
 import type { IngestItem, MessageItem, QuarantineItem } from './items';
-import { CopyInBatch, insertMessages, insertQuarantine, messageKey } from './store';
+import { CopyInBatch, inBatchTransaction, insertMessages, insertQuarantine, messageKey } from './store';
 import { judgeUnitInBatch, type JudgeResult } from './unit-judge';
 import { judgeCan, linkSpan, relinkFaults, type CanOutcome } from './unit-faults';
 import { emptyWrites, writeBatch, type BatchWrites } from './batch-writes';
@@ -105,8 +105,9 @@ export function createIngest(opts: IngestOptions) {
     const messages = items.filter((i): i is MessageItem => i.type === 'message');
     const quarantined = items.filter((i): i is QuarantineItem => i.type === 'quarantine');
     const ticks = new Set(items.flatMap((i) => (i.type === 'tick' ? [i.unitId] : [])));
-    const outcome = await sequelize.transaction(async (t) => {
-      const fresh = await insertMessages(sequelize, t, messages, dedupe);
+    const outcome = await inBatchTransaction(sequelize, async (t) => {
+      const fresh = await insertMessages(t, messages, dedupe);
+      await t.open(); // a batch of ticks or refusals only: no COPY opened it
       await insertQuarantine(sequelize, t, quarantined);
       const byUnit = new Map<string, MessageItem[]>();
       const seen = new Set<string>();
