@@ -1,5 +1,7 @@
 // The live feed: a WebSocket endpoint on the web server. Signed-in users get the whole fleet; a switch
-// page gets its one unit's indicator. Unit changes are coalesced for a few tens of ms, then pushed.
+// page gets its one unit's indicator. A unit that changed state (key-off, purge ended, supply lost) is
+// pushed at once, after the commit that judged it; the other changes (new readings) are coalesced for a
+// few tens of ms and go with the next push.
 import type { IncomingMessage, Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 import { WebSocketServer, type WebSocket } from 'ws';
@@ -48,6 +50,7 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   const peers = new Set<Peer>();
   const pending = new Set<string>();
   let timer: NodeJS.Timeout | null = null;
+  let soon: NodeJS.Immediate | null = null;
 
   const send = (p: Peer, msg: ServerMessage) => {
     if (p.ws.readyState !== p.ws.OPEN) return;
@@ -56,7 +59,10 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   };
 
   const flush = () => {
+    if (timer) clearTimeout(timer);
+    if (soon) clearImmediate(soon);
     timer = null;
+    soon = null;
     const ids = [...pending];
     pending.clear();
     const sentAt = new Date().toISOString();
@@ -68,18 +74,22 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     }
   };
 
-  const unitsChanged = (unitIds: string[]) => {
+  /** `stateChanged`: one of them entered another state, which the boards show without waiting (the rest ride along). */
+  const unitsChanged = (unitIds: string[], stateChanged = false) => {
     for (const id of unitIds) pending.add(id);
-    if (!timer) timer = setTimeout(flush, deps.coalesceMs ?? 25);
+    // After the events of this turn (the commit's other listeners), not inside them.
+    if (stateChanged) soon ??= setImmediate(flush);
+    else if (!timer && !soon) timer = setTimeout(flush, deps.coalesceMs ?? 25);
   };
   /** To every signed-in board (not the switch pages). */
   const broadcast = (msg: ServerMessage) => {
     for (const p of peers) if (p.scope === 'fleet') send(p, msg);
   };
   const episodesChanged = (unitIds: string[]) => broadcast({ type: 'episodes', unitIds: [...new Set(unitIds)] });
-  deps.events.on('units', (changes) => unitsChanged(changes.map((c) => c.unitId)));
+  deps.events.on('units', (changes) => unitsChanged(changes.map((c) => c.unitId), changes.some((c) => c.state?.state !== c.previous?.state)));
   deps.events.on('episodes', (changes) => episodesChanged(changes.map((c) => c.unitId)));
-  deps.peers?.on('units', unitsChanged);
+  // Relayed from other workers: coalesced like readings (the relay does not say which changed state).
+  deps.peers?.on('units', (unitIds) => unitsChanged(unitIds));
   deps.peers?.on('episodes', episodesChanged);
   deps.peers?.on('alert', (alert) => broadcast({ type: 'alert', alert }));
   // The relay missed notifications: a fresh hello makes each board re-read, as after its own reconnect.
@@ -161,6 +171,7 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     close() {
       clearInterval(heartbeat);
       if (timer) clearTimeout(timer);
+      if (soon) clearImmediate(soon);
       for (const p of peers) p.ws.terminate();
       wss.close();
     },
