@@ -1,7 +1,8 @@
 // The live feed: a WebSocket endpoint on the web server. Signed-in users get the whole fleet; a switch
 // page gets its one unit's indicator. A unit that changed state (key-off, purge ended, supply lost) is
-// pushed at once, after the commit that judged it; the other changes (new readings) are coalesced for a
-// few tens of ms and go with the next push.
+// pushed at once, after the commit that judged it, though never sooner than `minGapMs` after the last
+// push (a fast replay commits hundreds of batches a second, and each push re-renders every board); the
+// other changes (new readings) are coalesced for a few tens of ms and go with the next push.
 import type { IncomingMessage, Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 import { WebSocketServer, type WebSocket } from 'ws';
@@ -26,6 +27,8 @@ export interface LiveFeedDeps {
   view(unitId: string): LiveUnitView;
   depotOf(unitId: string): string;
   coalesceMs?: number;
+  /** Pushes are at least this far apart (default 20 ms). */
+  minGapMs?: number;
   heartbeatMs?: number;
 }
 
@@ -50,7 +53,9 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   const peers = new Set<Peer>();
   const pending = new Set<string>();
   let timer: NodeJS.Timeout | null = null;
+  let timerDue = Infinity;
   let soon: NodeJS.Immediate | null = null;
+  let lastPush = -Infinity;
 
   const send = (p: Peer, msg: ServerMessage) => {
     if (p.ws.readyState !== p.ws.OPEN) return;
@@ -62,7 +67,9 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     if (timer) clearTimeout(timer);
     if (soon) clearImmediate(soon);
     timer = null;
+    timerDue = Infinity;
     soon = null;
+    lastPush = Date.now();
     const ids = [...pending];
     pending.clear();
     const sentAt = new Date().toISOString();
@@ -77,9 +84,21 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   /** `stateChanged`: one of them entered another state, which the boards show without waiting (the rest ride along). */
   const unitsChanged = (unitIds: string[], stateChanged = false) => {
     for (const id of unitIds) pending.add(id);
-    // After the events of this turn (the commit's other listeners), not inside them.
-    if (stateChanged) soon ??= setImmediate(flush);
-    else if (!timer && !soon) timer = setTimeout(flush, deps.coalesceMs ?? 25);
+    const now = Date.now();
+    pushBy(stateChanged ? lastPush + (deps.minGapMs ?? 20) : now + (deps.coalesceMs ?? 25), now);
+  };
+  /** Makes sure a push happens by `due` (an earlier one already planned stands). */
+  const pushBy = (due: number, now: number) => {
+    if (soon || timerDue <= due) return;
+    if (timer) clearTimeout(timer);
+    timer = null;
+    timerDue = Infinity;
+    // Due now: after the events of this turn (the commit's other listeners), not inside them.
+    if (due <= now) soon = setImmediate(flush);
+    else {
+      timer = setTimeout(flush, due - now);
+      timerDue = due;
+    }
   };
   /** To every signed-in board (not the switch pages). */
   const broadcast = (msg: ServerMessage) => {

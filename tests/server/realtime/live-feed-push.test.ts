@@ -1,5 +1,5 @@
-// When the live feed pushes: a unit that entered another state goes out at once, new readings wait for the
-// coalescing window and ride along with the next push. A real http server, the feed and a real ws client;
+// When the live feed pushes: a unit that entered another state goes out at once (pushes kept a minimum gap
+// apart), new readings wait for the coalescing window and ride along with the next push. A real http server, the feed and a real ws client;
 // the ingest's announcements come from the real event emitter it uses.
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -41,6 +41,7 @@ beforeAll(async () => {
     depotOf: () => 'North',
     // Long enough that a push within it can only be the immediate one.
     coalesceMs: 1500,
+    minGapMs: 300,
   });
   board = await openLive(`ws://127.0.0.1:${(http.address() as AddressInfo).port}/api/live?token=ok`);
   await board.waitFor((m) => m.type === 'hello');
@@ -72,6 +73,17 @@ describe('live feed pushes', () => {
     const pushed = await board.waitFor((m) => m.type === 'units' && m.units.some((u) => u.id === 'LF-4'), 1000);
     expect(unitsMessages().length).toBe(before + 1);
     expect(pushed.type === 'units' && pushed.units).toHaveLength(1);
+  });
+
+  it('state changes close together: the second waits for the gap after the last push, not for the window', async () => {
+    announce('LF-6', st('keyOn'), st('purging'), 12.6);
+    await board.waitFor((m) => m.type === 'units' && m.units.some((u) => u.id === 'LF-6'), 1000);
+    const first = Date.now();
+    announce('LF-7', st('purging'), st('interrupted'), 1.2); // supply lost
+    await board.waitFor((m) => m.type === 'units' && m.units.some((u) => u.id === 'LF-7' && u.state === 'interrupted'), 1000);
+    const waited = Date.now() - first;
+    expect(waited).toBeGreaterThanOrEqual(250);
+    expect(waited).toBeLessThan(1200);
   });
 
   it('a reading alone is pushed when the window ends', async () => {
