@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { connectDb, type Db } from '../../../server/db/index';
-import { CopyInBatch, inBatchTransaction, insertMessages } from '../../../server/ingest/store';
+import { CopyInBatch, inBatchTransaction, insertMessages, type BatchTransaction } from '../../../server/ingest/store';
 import type { MessageItem } from '../../../server/ingest/items';
 import { createTestDatabase } from '../../helpers/test-db';
 
@@ -80,7 +80,7 @@ describe('the batch transaction (BEGIN sent with the COPY)', () => {
   });
 
   it('a batch without messages is a transaction all the same: its writes commit together or not at all', async () => {
-    const q = (sql: string, t: Parameters<Parameters<typeof inBatchTransaction>[1]>[0]) => db.sequelize.query(sql, { transaction: t });
+    const q = (sql: string, t: BatchTransaction) => db.sequelize.query(sql, { transaction: t });
     await inBatchTransaction(db.sequelize, async (t) => {
       await insertMessages(t, []);
       await t.open();
