@@ -1,5 +1,6 @@
 import { DEF_FREEZE_POINT_C } from '../../shared/protocol/limits';
-import type { FreezeBand, UnitEvent } from './types';
+import type { Episode, FreezeBand, UnitEvent } from './types';
+import { comparePositions } from './positions';
 import type { JudgedEpisode } from './judge-episodes';
 
 // Freeze exposure of an interrupted purge: the DEF left in the dosing lines was not pumped back to the
@@ -36,6 +37,35 @@ export function freezeBand(lowestAmbientC: number | null): FreezeBand | null {
   return 'none';
 }
 
+interface FreezeFigures {
+  lowest: number | null;
+  nextKeyOnAt: number | null;
+}
+
+/**
+ * Folds ordered[from..] into an interrupted episode's figures: the lowest ambient of the samples up to
+ * and including index `end` (the next completed purge's key-off, or the last event), and the first key-on
+ * sample's time if none is known yet.
+ */
+function foldFreeze(f: FreezeFigures, ordered: readonly UnitEvent[], from: number, end: number): FreezeFigures {
+  let { lowest, nextKeyOnAt } = f;
+  for (let i = from; i < ordered.length; i++) {
+    const e = ordered[i];
+    if (e.kind !== 'telemetry') continue;
+    if (nextKeyOnAt === null && e.key === 'on') nextKeyOnAt = e.ts;
+    if (i <= end && e.ambientC !== null && (lowest === null || e.ambientC < lowest)) lowest = e.ambientC;
+    if (i >= end && nextKeyOnAt !== null) break;
+  }
+  return { lowest, nextKeyOnAt };
+}
+
+function setFigures(episode: Episode, f: FreezeFigures): Episode {
+  episode.minAmbientAfterC = f.lowest;
+  episode.freezeExposure = freezeBand(f.lowest);
+  episode.nextKeyOnAt = f.nextKeyOnAt;
+  return episode;
+}
+
 /**
  * Fills minAmbientAfterC, freezeExposure and nextKeyOnAt on each interrupted episode (in place).
  * The lowest ambient takes the ambient at key-off and every sample after the key-off, up to the key-off
@@ -49,17 +79,51 @@ export function fillFreezeExposure(judged: JudgedEpisode[], ordered: readonly Un
     if (episode.outcome !== 'interrupted') return;
     const nextCompleted = judged.slice(n + 1).find((later) => later.episode.outcome === 'completed');
     const end = nextCompleted ? nextCompleted.keyOffIndex : ordered.length - 1;
-    let lowest = episode.ambientC;
-    let nextKeyOnAt: number | null = null;
-    for (let i = j.keyOffIndex + 1; i < ordered.length; i++) {
-      const e = ordered[i];
-      if (e.kind !== 'telemetry') continue;
-      if (nextKeyOnAt === null && e.key === 'on') nextKeyOnAt = e.ts;
-      if (i <= end && e.ambientC !== null && (lowest === null || e.ambientC < lowest)) lowest = e.ambientC;
-      if (i >= end && nextKeyOnAt !== null) break;
-    }
-    episode.minAmbientAfterC = lowest;
-    episode.freezeExposure = freezeBand(lowest);
-    episode.nextKeyOnAt = nextKeyOnAt;
+    setFigures(episode, foldFreeze({ lowest: episode.ambientC, nextKeyOnAt: null }, ordered, j.keyOffIndex + 1, end));
   });
+}
+
+/**
+ * The interrupted episodes carried in a judging window's context (their lines still wet, their key-offs
+ * before the window), as new objects with the window's samples folded in, by the same rule as
+ * fillFreezeExposure: up to the key-off of the first completed purge among the window's episodes.
+ * Their figures so far stand for the samples before the window, so none of those need be kept.
+ */
+export function carryFreezeExposure(wet: readonly Episode[], judged: readonly JudgedEpisode[], ordered: readonly UnitEvent[]): Episode[] {
+  return wet.map((w) => {
+    const nextCompleted = judged.find((j) => j.episode.outcome === 'completed' && comparePositions(j.episode.keyOff, w.keyOff) > 0);
+    const end = nextCompleted ? nextCompleted.keyOffIndex : ordered.length - 1;
+    let from = 0;
+    while (from < ordered.length && comparePositions(ordered[from], w.keyOff) <= 0) from++;
+    return setFigures({ ...w }, foldFreeze({ lowest: w.minAmbientAfterC, nextKeyOnAt: w.nextKeyOnAt }, ordered, from, end));
+  });
+}
+
+/**
+ * Folds messages that arrived late, before the judging window, into the carried interrupted episodes
+ * they come after (new objects). Any completed purge after a carried episode lies in the window, so a
+ * message before the window is always before the one that closes its figures. The first key-on is
+ * taken by time (the figures keep no position for it); within a boot, time follows the sequence.
+ */
+export function foldLateFreezeExposure(wet: readonly Episode[], late: readonly UnitEvent[]): Episode[] {
+  return wet.map((w) => {
+    const f: FreezeFigures = { lowest: w.minAmbientAfterC, nextKeyOnAt: w.nextKeyOnAt };
+    for (const e of late) {
+      if (e.kind !== 'telemetry' || comparePositions(e, w.keyOff) <= 0) continue;
+      if (e.key === 'on' && (f.nextKeyOnAt === null || e.ts < f.nextKeyOnAt)) f.nextKeyOnAt = e.ts;
+      if (e.ambientC !== null && (f.lowest === null || e.ambientC < f.lowest)) f.lowest = e.ambientC;
+    }
+    return setFigures({ ...w }, f);
+  });
+}
+
+/**
+ * An interrupted episode judged again from part of the history (one old boot, window.ts): its freeze
+ * figures are the union of what that part shows and what was stored (which saw the other parts).
+ */
+export function mergeFreezeExposure(partial: Episode, stored: Episode): Episode {
+  if (partial.outcome !== 'interrupted' || stored.outcome !== 'interrupted') return partial;
+  const low = [partial.minAmbientAfterC, stored.minAmbientAfterC].filter((v): v is number => v !== null);
+  const keyOns = [partial.nextKeyOnAt, stored.nextKeyOnAt].filter((v): v is number => v !== null);
+  return setFigures({ ...partial }, { lowest: low.length ? Math.min(...low) : null, nextKeyOnAt: keyOns.length ? Math.min(...keyOns) : null });
 }

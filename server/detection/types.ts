@@ -101,6 +101,12 @@ export interface JudgeContext {
   state: BaseState | null;
   /** The last telemetry sample before the window that carried an ambient, for an episode's ambientC. */
   lastAmbient: { ts: number; ambientC: number } | null;
+  /**
+   * Interrupted episodes before the window whose lines are still wet (no completed purge after them
+   * yet), with their freeze figures so far: the window's samples fold into them (freeze.ts), so the
+   * samples before the window need not be kept. Absent or empty: none.
+   */
+  wet?: Episode[];
 }
 
 export interface JudgeInput {

@@ -52,6 +52,16 @@ const ContextSchema = z.object({
     })
     .nullable(),
   lastAmbient: z.object({ ts: Ms, ambientC: z.number().finite() }).nullable(),
+  // What the engine reads of a carried wet episode: its identity, profile, and freeze figures so far.
+  wet: z
+    .array(
+      PreviousEpisodeSchema.extend({
+        outcome: z.literal('interrupted'),
+        minAmbientAfterC: z.number().finite().nullable(),
+        nextKeyOnAt: Ms.nullable(),
+      }),
+    )
+    .optional(),
 });
 
 const JudgeInputSchema = z.object({

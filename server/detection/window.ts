@@ -1,5 +1,5 @@
-import type { EventPosition, JudgeContext, JudgeInput, Judgement } from './types';
-import { positionOf } from './positions';
+import type { Episode, EventPosition, JudgeContext, JudgeInput, Judgement } from './types';
+import { comparePositions, positionOf } from './positions';
 import { initialFold, judgeInternals, judgementOf, type JudgedUnit } from './judge-unit';
 import { closeFold, foldEvents } from './unit-state';
 
@@ -25,17 +25,29 @@ export interface JudgingWindow {
  * new ones), `context`, the same profile, and the stored episodes as previousEpisodes. The judgement
  * then holds every episode with key-off >= start; the shell upserts them by keyOff position, and deletes
  * a stored episode with key-off >= start that is no longer returned (its key-off moved: a late message
- * filled a gap before it). Episodes before `start` are final or past the hold limit: leave them alone.
+ * filled a gap before it). Episodes before `start` are final or past the hold limit: leave them alone,
+ * but for the still-wet ones carried in the context (below).
  *
- * `start` is the earliest of: the key-on sample before the key-off of every episode that can still
- * change (not final; or interrupted with no later completed purge, whose freeze figures and next key-on
- * are still open), unless past the hold limit; the last telemetry sample (a new key-off needs the sample
- * before it); the last event (silence is measured from it). It never falls between an episode's key-on
- * sample and its key-off, so a kept key-off always keeps the sample that makes it one.
+ * `start` is the earliest of: the key-on sample before the key-off of every episode that is not final,
+ * unless past the hold limit; the last telemetry sample (a new key-off needs the sample before it); the
+ * last event (silence is measured from it). It never falls between an episode's key-on sample and its
+ * key-off, so a kept key-off always keeps the sample that makes it one.
+ *
+ * An interrupted episode whose lines are still wet (no completed purge after it yet) has freeze figures
+ * and a next key-on still open, however final it is. It does not hold the window: it travels in
+ * `context.wet` with its figures so far, each judgement folds the new samples into it and returns it
+ * among the episodes (upsert it like the others, and keep it as a stored episode while it is carried).
+ * It leaves the context once a completed purge after it lies before `start`, or past the hold limit.
+ * So a unit that was isolated mid-purge and then drives all day holds a handful of events, not the day.
  *
  * A message that arrives before `start` cannot change a final episode or the current state. It can
  * reveal a key-off in an old gap: store it, and to judge that stretch load its boot's events from the
  * database, judge them with no context, and upsert only the returned episodes that lie before `start`.
+ * Such a stretch shows only part of the freeze figures: fold the late messages into the carried wet
+ * episodes first (foldLateFreezeExposure) and keep those as they are; for another interrupted episode
+ * take the union of the stretch's figures and the stored ones (mergeFreezeExposure). A completed purge
+ * revealed there after a carried episode's key-off closes it (drop it from `context.wet`); its figures
+ * may then include samples after that purge, so they err on the cold side.
  */
 export function judgingWindow(input: JudgeInput, options: { holdLimitMs?: number } = {}): JudgingWindow {
   return windowOf(input, judgeInternals(input), options.holdLimitMs);
@@ -50,11 +62,12 @@ export function judgeWithWindow(input: JudgeInput, options: { holdLimitMs?: numb
   return { judgement: judgementOf(input, internals), window: windowOf(input, internals, options.holdLimitMs) };
 }
 
-function windowOf(input: JudgeInput, { ordered, judged }: JudgedUnit, holdLimit?: number): JudgingWindow {
+function windowOf(input: JudgeInput, { ordered, judged, carried }: JudgedUnit, holdLimit?: number): JudgingWindow {
   const holdLimitMs = holdLimit ?? DEFAULT_HOLD_LIMIT_MS;
   if (!Number.isFinite(holdLimitMs) || holdLimitMs < 0) throw new RangeError(`holdLimitMs must be a finite ms >= 0, got ${holdLimitMs}`);
-  const carried: JudgeContext = input.context ?? { state: null, lastAmbient: null };
-  if (ordered.length === 0) return { start: null, context: carried };
+  const given: JudgeContext = input.context ?? { state: null, lastAmbient: null };
+  if (ordered.length === 0) return { start: null, context: given };
+  const expired = (e: Episode) => input.now - (e.keyOff.ts + e.purgeSeconds * 1000) > holdLimitMs;
 
   let start = ordered.length - 1;
   for (let i = ordered.length - 1; i >= 0; i--) {
@@ -63,21 +76,20 @@ function windowOf(input: JudgeInput, { ordered, judged }: JudgedUnit, holdLimit?
       break;
     }
   }
-  judged.forEach((j, n) => {
-    const e = j.episode;
-    const c = e.keyOff.ts + e.purgeSeconds * 1000;
-    const freezeOpen = e.outcome === 'interrupted' && !judged.slice(n + 1).some((l) => l.episode.outcome === 'completed');
-    const expired = input.now - c > holdLimitMs;
-    if ((!e.final || freezeOpen) && !expired) start = Math.min(start, j.anchorIndex);
-  });
+  for (const j of judged) if (!j.episode.final && !expired(j.episode)) start = Math.min(start, j.anchorIndex);
   const straddled = judged.find((j) => j.anchorIndex < start && start <= j.keyOffIndex);
   if (straddled) start = straddled.anchorIndex;
 
   const fold = foldEvents(ordered, judged, input.profile.lossThresholdV, initialFold(input), 0, start, input.now);
-  let lastAmbient = carried.lastAmbient;
+  let lastAmbient = given.lastAmbient;
   for (let i = 0; i < start; i++) {
     const e = ordered[i];
     if (e.kind === 'telemetry' && e.ambientC !== null) lastAmbient = { ts: e.ts, ambientC: e.ambientC };
   }
-  return { start: positionOf(ordered[start]), context: { state: closeFold(fold, input.now), lastAmbient } };
+  const context: JudgeContext = { state: closeFold(fold, input.now), lastAmbient };
+  const before = judged.filter((j) => j.keyOffIndex < start);
+  const closedBefore = (e: Episode) => before.some((j) => j.episode.outcome === 'completed' && comparePositions(j.episode.keyOff, e.keyOff) > 0);
+  const wet = [...carried, ...before.map((j) => j.episode)].filter((e) => e.outcome === 'interrupted' && !expired(e) && !closedBefore(e));
+  if (wet.length) context.wet = wet;
+  return { start: positionOf(ordered[start]), context };
 }

@@ -98,17 +98,18 @@ export class UnitBook {
     else await this.get(unitId);
   }
 
-  /** Rebuilds a unit's memory: its still-open episodes (or the latest one) and the events from there on. */
+  /**
+   * Rebuilds a unit's memory: its episodes that are not final (or the latest one) and the events from there
+   * on; before them, the interrupted episodes whose lines are still wet, carried with their stored freeze
+   * figures (window.ts).
+   */
   async rebuild(profile: UnitProfile, t?: Transaction): Promise<UnitMemory> {
     const m = newMemory(profile, this.wallNow());
     const [v] = await this.sequelize.query<{ judged_version: string }>(`SELECT judged_version FROM units WHERE id = $1`, { bind: [profile.unitId], type: QueryTypes.SELECT, transaction: t });
     m.version = Number(v?.judged_version ?? 0);
     const recent = (await latestEpisodes(this.sequelize, profile.unitId, 50, t)).reverse();
     let anchor = recent.length ? recent[recent.length - 1] : null;
-    recent.forEach((s, i) => {
-      const freezeOpen = s.episode.outcome === 'interrupted' && !recent.slice(i + 1).some((l) => l.episode.outcome === 'completed');
-      if ((!s.episode.final || freezeOpen) && (!anchor || comparePositions(s.episode.keyOff, anchor.episode.keyOff) < 0)) anchor = s;
-    });
+    for (const s of recent) if (!s.episode.final && (!anchor || comparePositions(s.episode.keyOff, anchor.episode.keyOff) < 0)) anchor = s;
     const from = anchor ? anchor.episode.keyOff : null;
     const tail = await loadEvents(this.sequelize, profile.unitId, { from, beforeTail: from ? 3 : 20 }, t);
     const rest = from ? await loadEvents(this.sequelize, profile.unitId, { from }, t) : [];
@@ -122,13 +123,18 @@ export class UnitBook {
       const e = r.event;
       if (e.kind === 'telemetry') m.lastTelemetry = { position: { stream: e.stream, boot: e.boot, seq: e.seq }, supplyV: e.supplyV, ambientC: e.ambientC };
     }
-    for (const s of recent) if (!from || comparePositions(s.episode.keyOff, from) >= 0) m.episodes.set(positionKey(s.episode.keyOff), s);
+    const events = orderEvents(rows.map((r) => r.event));
+    const first = events[0];
+    // Before the loaded events: interrupted with no completed purge after it that is before them either.
+    const wet = recent.filter((s, i) => comparePositions(s.episode.keyOff, first) < 0 && s.episode.outcome === 'interrupted'
+      && !recent.slice(i + 1).some((l) => l.episode.outcome === 'completed' && comparePositions(l.episode.keyOff, first) < 0));
+    for (const s of recent) if (!from || comparePositions(s.episode.keyOff, from) >= 0 || wet.includes(s)) m.episodes.set(positionKey(s.episode.keyOff), s);
     const input: JudgeInput = {
       profile: { purgeSeconds: profile.purgeSeconds, lossThresholdV: profile.lossThresholdV },
-      events: orderEvents(rows.map((r) => r.event)),
+      events,
       previousEpisodes: [...m.episodes.values()].map((s) => s.episode),
       now: this.clock(m, this.wallNow()),
-      context: null,
+      context: wet.length ? { state: null, lastAmbient: null, wet: wet.map((s) => s.episode) } : null,
     };
     const { judgement, window: win } = judgeWithWindow(input, { validate: false });
     m.state = judgement.state;

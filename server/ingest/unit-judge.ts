@@ -3,7 +3,8 @@
 // memory (swapped in after commit). It only reads the database, so a unit that fails leaves no trace.
 import type { Sequelize, Transaction } from 'sequelize';
 import { judgeUnit } from '../detection/judge-unit';
-import { judgeWithWindow } from '../detection/window';
+import { judgeWithWindow, type JudgingWindow } from '../detection/window';
+import { foldLateFreezeExposure, mergeFreezeExposure } from '../detection/freeze';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
 import { applyWindow, cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
@@ -62,6 +63,8 @@ export async function judgeUnitInBatch(
   const deleted: number[] = [];
   const previousVersions = new Map<string, Episode>();
 
+  // Late messages before the window after a carried wet episode's key-off: their readings count in its freeze figures.
+  if (before.length && m.context?.wet) m.context = { ...m.context, wet: foldLateFreezeExposure(m.context.wet, before) };
   const now = clock(m);
   const input: JudgeInput = {
     profile: { purgeSeconds: m.profile.purgeSeconds, lossThresholdV: m.profile.lossThresholdV },
@@ -70,7 +73,8 @@ export async function judgeUnitInBatch(
     now,
     context: m.context,
   };
-  const { judgement, window: win } = judgeWithWindow(input, { validate: false });
+  const { judgement, window: judged } = judgeWithWindow(input, { validate: false });
+  let win = judged;
   const returned = new Set(judgement.episodes.map((e) => positionKey(e.keyOff)));
   // A stored episode in the window whose key-off is no longer one (a late message filled a gap before it).
   const gone = [...m.episodes.values()].filter((s) => !returned.has(positionKey(s.episode.keyOff)));
@@ -82,22 +86,25 @@ export async function judgeUnitInBatch(
   m.state = judgement.state;
 
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
-  if (before.length) await judgeOldStretch(sequelize, t, m, before, now, (episodes, stored) => writeChanged(episodes, stored, changed, previousVersions), deleted);
+  if (before.length) win = await judgeOldStretch(sequelize, t, m, win, before, now, (episodes, stored) => writeChanged(episodes, stored, changed, previousVersions), deleted);
 
   applyWindow(m, win, input.events);
   return { memory: m, changed, deleted, before: previousVersions };
 }
 
+/** Returns the window with any carried wet episode closed by a completed purge the old stretch revealed. */
 async function judgeOldStretch(
   sequelize: Sequelize,
   t: Transaction,
   m: UnitMemory,
+  win: JudgingWindow,
   late: UnitEvent[],
   now: number,
   write: Write,
   deleted: number[],
-) {
+): Promise<JudgingWindow> {
   const unitId = m.profile.unitId;
+  let wet = win.context.wet ?? [];
   const boots = new Map<string, { stream: number; boot: number }>();
   for (const e of late) boots.set(`${e.stream}/${e.boot}`, { stream: e.stream, boot: e.boot });
   for (const { stream, boot } of boots.values()) {
@@ -117,6 +124,16 @@ async function judgeOldStretch(
     const kept = new Set(outside.map((e) => positionKey(e.keyOff)));
     const gone = [...stored.values()].filter((s) => before(s.episode.keyOff) && !kept.has(positionKey(s.episode.keyOff)));
     deleted.push(...gone.map((g) => g.id));
-    write(outside, stored);
+    // One boot shows only part of an episode's freeze figures (window.ts): a carried wet episode keeps its own
+    // (the late readings are folded in already), another interrupted one takes the union with the stored ones.
+    const carried = new Set(wet.map((w) => positionKey(w.keyOff)));
+    const partial = outside.filter((e) => !carried.has(positionKey(e.keyOff)));
+    write(partial.map((e) => { const s = stored.get(positionKey(e.keyOff)); return s ? mergeFreezeExposure(e, s.episode) : e; }), stored);
+    const completed = outside.filter((e) => e.outcome === 'completed');
+    wet = wet.filter((w) => !completed.some((c) => comparePositions(c.keyOff, w.keyOff) > 0));
   }
+  const context = { ...win.context };
+  if (wet.length) context.wet = wet;
+  else delete context.wet;
+  return { ...win, context };
 }

@@ -3,7 +3,7 @@
 // all of this is rebuilt from it at start-up.
 import type { Episode, EventPosition, JudgeContext, Profile, UnitEvent, UnitState } from '../detection/types';
 import type { JudgingWindow } from '../detection/window';
-import { comparePositions } from '../detection/positions';
+import { comparePositions, positionKey } from '../detection/positions';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 
 export interface StoredEpisode {
@@ -23,7 +23,7 @@ export interface UnitMemory {
   events: UnitEvent[];
   windowStart: EventPosition | null;
   context: JudgeContext | null;
-  /** Stored episodes with key-off >= windowStart, by position key. */
+  /** Stored episodes with key-off >= windowStart, and the still-wet ones the context carries, by position key. */
   episodes: Map<string, StoredEpisode>;
   state: UnitState | null;
   /** Latest event time seen, and the wall time at which it arrived: the unit's clock runs on from there. */
@@ -56,10 +56,14 @@ export function unitNow(m: UnitMemory, wallNow: number): number {
   return m.lastTs === null ? wallNow : m.lastTs + Math.max(0, wallNow - m.lastArrival);
 }
 
-/** Keeps only what the next judgement needs (window.ts): the events and stored episodes from the window's start on, and its context. */
+/**
+ * Keeps only what the next judgement needs (window.ts): the events and stored episodes from the window's
+ * start on, the still-wet episodes its context carries, and the context.
+ */
 export function applyWindow(m: UnitMemory, win: JudgingWindow, ordered: UnitEvent[]) {
   m.windowStart = win.start;
   m.context = win.context;
   m.events = win.start ? ordered.filter((e) => comparePositions(e, win.start!) >= 0) : [];
-  for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0) m.episodes.delete(key);
+  const wet = new Set((win.context.wet ?? []).map((e) => positionKey(e.keyOff)));
+  for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0 && !wet.has(key)) m.episodes.delete(key);
 }

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEF_FREEZE_POINT_C } from '../../../shared/protocol/limits';
-import { freezeBand } from '../../../server/detection/freeze';
-import { at, gateway, judge, keyedOff } from './builders';
+import { foldLateFreezeExposure, freezeBand, mergeFreezeExposure } from '../../../server/detection/freeze';
+import { judgeUnit } from '../../../server/detection/judge-unit';
+import { PROFILE_12V, at, gateway, judge, keyedOff } from './builders';
 
 // AUS 32 (DEF) freezes at -11 °C: ISO 22241-1. The bands above it are this project's design (margins
 // for sensor tolerance and unobserved night lows, "from memory"; see freeze.ts).
@@ -89,5 +90,46 @@ describe('freeze exposure of an interrupted purge', () => {
   it('completed and resumed episodes carry no freeze fields', () => {
     const { episodes } = judge(night([-20, -20, -20]).events);
     expect(episodes[1]).toMatchObject({ minAmbientAfterC: null, freezeExposure: null, nextKeyOnAt: null });
+  });
+});
+
+describe('freeze figures carried past the judging window', () => {
+  /** The night above up to the morning's first readings: the interrupted episode as the shell stores it. */
+  function wetEpisode() {
+    const g = keyedOff(undefined, { ambientC: -3 });
+    g.lost(38);
+    g.boot(50_000, { atS: 38, cause: 'supply-lost' });
+    g.off(50_001, { ambientC: -5 });
+    return { g, episode: judge(g.events).episodes[0] };
+  }
+
+  it('late readings after the key-off count; readings before it do not; an earlier key-on is the next key-on', () => {
+    const { episode } = wetEpisode();
+    expect(episode).toMatchObject({ minAmbientAfterC: -5, freezeExposure: 'watch', nextKeyOnAt: null });
+    const late = gateway({ boot: 2, seq: 5 });
+    late.on(50_100, { ambientC: -12 });
+    const before = gateway({ boot: 1, seq: 0 });
+    before.on(-20, { ambientC: -40 });
+    const [folded] = foldLateFreezeExposure([episode], [...before.events, ...late.events]);
+    expect(folded).toMatchObject({ minAmbientAfterC: -12, freezeExposure: 'frozen', nextKeyOnAt: at(50_100) });
+    expect(episode.minAmbientAfterC).toBe(-5); // a new object: the stored one is left as it was
+    const earlier = gateway({ boot: 2, seq: 3 });
+    earlier.on(50_050, { ambientC: 0 });
+    expect(foldLateFreezeExposure([folded], earlier.events)[0]).toMatchObject({ minAmbientAfterC: -12, nextKeyOnAt: at(50_050) });
+  });
+
+  it('an episode judged again from one old boot takes the union with the stored figures', () => {
+    const { episode } = wetEpisode();
+    const stored = { ...episode, minAmbientAfterC: -9, freezeExposure: 'atRisk' as const, nextKeyOnAt: at(50_060) };
+    const partial = { ...episode, minAmbientAfterC: -3, freezeExposure: 'watch' as const, nextKeyOnAt: null };
+    expect(mergeFreezeExposure(partial, stored)).toMatchObject({ minAmbientAfterC: -9, freezeExposure: 'atRisk', nextKeyOnAt: at(50_060) });
+    const colder = { ...partial, minAmbientAfterC: -11, nextKeyOnAt: at(50_055) };
+    expect(mergeFreezeExposure(colder, stored)).toMatchObject({ minAmbientAfterC: -11, freezeExposure: 'frozen', nextKeyOnAt: at(50_055) });
+  });
+
+  it('a carried episode that is not interrupted is refused at the engine\'s edge', () => {
+    const { g, episode } = wetEpisode();
+    const context = { state: null, lastAmbient: null, wet: [{ ...episode, outcome: 'completed' as const }] };
+    expect(() => judgeUnit({ profile: PROFILE_12V, events: g.events.slice(-1), now: at(50_010), context })).toThrow(/context\.wet\.0\.outcome/);
   });
 });

@@ -69,7 +69,7 @@ describe('judging in a window', () => {
     expect(shell.state).toEqual({ state: 'keyOn', since: at(0), purgeRemainingS: null });
   });
 
-  it('an interruption holds the window until the next completed purge, so the freeze figures stay right', () => {
+  it('an interruption rides in the context until the next completed purge, so the freeze figures stay right', () => {
     const g = keyedOff(undefined, { ambientC: -2 });
     g.lost(38);
     g.boot(40_000, { atS: 38, cause: 'supply-lost' });
@@ -79,6 +79,51 @@ describe('judging in a window', () => {
     const shell = expectSameAsFull(g.events);
     expect(shell.episodes[0]).toMatchObject({ outcome: 'interrupted', minAmbientAfterC: -12, freezeExposure: 'frozen', nextKeyOnAt: at(40_010) });
     expect(shell.kept).toBeLessThanOrEqual(2);
+  });
+
+  it('a day of driving after an interruption keeps a few events, not the day', () => {
+    const g = keyedOff(undefined, { ambientC: -3 });
+    g.lost(38);
+    g.boot(40_000, { atS: 38, cause: 'supply-lost' });
+    for (let s = 40_010; s < 50_000; s += 5) g.on(s, { ambientC: s === 45_000 ? -9.5 : -4 });
+    const shell = expectSameAsFull(g.events);
+    expect(shell.episodes[0]).toMatchObject({ outcome: 'interrupted', minAmbientAfterC: -9.5, freezeExposure: 'atRisk', nextKeyOnAt: at(40_010) });
+    // At most the key-off's own stretch until the interruption settled; a window held open would keep all 2,000 readings.
+    expect(shell.largestKept).toBeLessThanOrEqual(5);
+    expect(shell.kept).toBe(1);
+  });
+
+  it('two interruptions before a completed purge each take the readings after their own key-off', () => {
+    const g = keyedOff(undefined, { ambientC: -3 });
+    g.lost(38);
+    g.boot(40_000, { atS: 38, cause: 'supply-lost' });
+    for (let s = 40_010; s < 41_000; s += 5) g.on(s, { ambientC: s === 40_500 ? -6 : -1 });
+    g.off(41_000, { ambientC: -2 });
+    g.lost(41_020);
+    g.boot(80_000, { atS: 41_020, cause: 'supply-lost' });
+    for (let s = 80_010; s < 81_000; s += 5) g.on(s, { ambientC: -4 });
+    g.off(81_000, { ambientC: -1 });
+    g.off(81_130, { ambientC: -1 });
+    g.on(90_000, { ambientC: -20 });
+    const shell = expectSameAsFull(g.events);
+    expect(shell.episodes.map((e) => [e.outcome, e.minAmbientAfterC, e.nextKeyOnAt])).toEqual([
+      ['interrupted', -6, at(40_010)],
+      ['interrupted', -4, at(80_010)],
+      ['completed', null, null],
+    ]);
+    expect(shell.largestKept).toBeLessThanOrEqual(5);
+  });
+
+  it('past the hold limit an interruption leaves the context and its figures stay as they were', () => {
+    const g = keyedOff(undefined, { ambientC: -3 });
+    g.lost(38);
+    g.boot(150, { atS: 38, cause: 'supply-lost' });
+    g.on(160, { ambientC: -5 });
+    // A hold limit of 60 s past the purge's end (120 s): the judgement that finds it past is its last.
+    g.on(40_000, { ambientC: -8 });
+    g.on(40_005, { ambientC: -30 });
+    const shell = runShell(g.events, arrivedAt, 60_000);
+    expect(shell.episodes[0]).toMatchObject({ outcome: 'interrupted', minAmbientAfterC: -8, freezeExposure: 'atRisk' });
   });
 
   it('a late buffered message into a held gap settles as in the whole history', () => {
