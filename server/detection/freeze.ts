@@ -100,6 +100,18 @@ export function carryFreezeExposure(wet: readonly Episode[], judged: readonly Ju
 }
 
 /**
+ * Of episodes in key-off order, those whose lines are still wet: interrupted, with no completed purge
+ * after them among the episodes. (`episodeOf` reads the episode of an item, for lists of stored ones.)
+ */
+export function stillWet<T>(items: readonly T[], episodeOf: (item: T) => Episode): T[] {
+  const wet: T[] = [];
+  for (let i = items.length - 1; i >= 0 && episodeOf(items[i]).outcome !== 'completed'; i--) {
+    if (episodeOf(items[i]).outcome === 'interrupted') wet.unshift(items[i]);
+  }
+  return wet;
+}
+
+/**
  * Folds messages that arrived late, before the judging window, into the carried interrupted episodes
  * they come after (new objects). Any completed purge after a carried episode lies in the window, so a
  * message before the window is always before the one that closes its figures. The first key-on is

@@ -1,5 +1,6 @@
 import type { Episode, EventPosition, JudgeContext, JudgeInput, Judgement } from './types';
-import { comparePositions, positionOf } from './positions';
+import { positionOf } from './positions';
+import { stillWet } from './freeze';
 import { initialFold, judgeInternals, judgementOf, type JudgedUnit } from './judge-unit';
 import { closeFold, foldEvents } from './unit-state';
 
@@ -87,9 +88,9 @@ function windowOf(input: JudgeInput, { ordered, judged, carried }: JudgedUnit, h
     if (e.kind === 'telemetry' && e.ambientC !== null) lastAmbient = { ts: e.ts, ambientC: e.ambientC };
   }
   const context: JudgeContext = { state: closeFold(fold, input.now), lastAmbient };
-  const before = judged.filter((j) => j.keyOffIndex < start);
-  const closedBefore = (e: Episode) => before.some((j) => j.episode.outcome === 'completed' && comparePositions(j.episode.keyOff, e.keyOff) > 0);
-  const wet = [...carried, ...before.map((j) => j.episode)].filter((e) => e.outcome === 'interrupted' && !expired(e) && !closedBefore(e));
+  // The carried episodes lie before the window's events, so this list is in key-off order.
+  const before = [...carried, ...judged.filter((j) => j.keyOffIndex < start).map((j) => j.episode)];
+  const wet = stillWet(before, (e) => e).filter((e) => !expired(e));
   if (wet.length) context.wet = wet;
   return { start: positionOf(ordered[start]), context };
 }

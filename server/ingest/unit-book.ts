@@ -5,6 +5,7 @@ import { Unit } from '../db/models/unit';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 import { KEY_ON_SILENCE_MS, SAFE_SILENCE_MS, SETTLE_GRACE_MS } from '../../shared/protocol/limits';
 import { judgeWithWindow } from '../detection/window';
+import { stillWet } from '../detection/freeze';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { JudgeInput } from '../detection/types';
 import { emptyLiveUnitView, type LiveUnitView } from '../lib/context';
@@ -125,9 +126,8 @@ export class UnitBook {
     }
     const events = orderEvents(rows.map((r) => r.event));
     const first = events[0];
-    // Before the loaded events: interrupted with no completed purge after it that is before them either.
-    const wet = recent.filter((s, i) => comparePositions(s.episode.keyOff, first) < 0 && s.episode.outcome === 'interrupted'
-      && !recent.slice(i + 1).some((l) => l.episode.outcome === 'completed' && comparePositions(l.episode.keyOff, first) < 0));
+    // Carried, not judged again: the still-wet episodes before the loaded events.
+    const wet = stillWet(recent.filter((s) => comparePositions(s.episode.keyOff, first) < 0), (s) => s.episode);
     for (const s of recent) if (!from || comparePositions(s.episode.keyOff, from) >= 0 || wet.includes(s)) m.episodes.set(positionKey(s.episode.keyOff), s);
     const input: JudgeInput = {
       profile: { purgeSeconds: profile.purgeSeconds, lossThresholdV: profile.lossThresholdV },
