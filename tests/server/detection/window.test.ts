@@ -43,6 +43,14 @@ function expectSameAsFull(events: UnitEvent[], arrivals = events) {
   return shell;
 }
 
+/** Key-off at `keyOffC` °C, supply lost 38 s into the purge, the next boot at `bootS`. */
+function interruptedThenBoot(keyOffC: number, bootS = 40_000) {
+  const g = keyedOff(undefined, { ambientC: keyOffC });
+  g.lost(38);
+  g.boot(bootS, { atS: 38, cause: 'supply-lost' });
+  return g;
+}
+
 describe('judging in a window', () => {
   it('a day of driving and stops judges the same as the whole history, holding few events', () => {
     const g = gateway();
@@ -70,9 +78,7 @@ describe('judging in a window', () => {
   });
 
   it('an interruption rides in the context until the next completed purge, so the freeze figures stay right', () => {
-    const g = keyedOff(undefined, { ambientC: -2 });
-    g.lost(38);
-    g.boot(40_000, { atS: 38, cause: 'supply-lost' });
+    const g = interruptedThenBoot(-2);
     for (let s = 40_010; s < 41_000; s += 5) g.on(s, { ambientC: s === 40_500 ? -12 : -4 });
     g.off(41_000);
     g.off(41_130);
@@ -82,9 +88,7 @@ describe('judging in a window', () => {
   });
 
   it('a day of driving after an interruption keeps a few events, not the day', () => {
-    const g = keyedOff(undefined, { ambientC: -3 });
-    g.lost(38);
-    g.boot(40_000, { atS: 38, cause: 'supply-lost' });
+    const g = interruptedThenBoot(-3);
     for (let s = 40_010; s < 50_000; s += 5) g.on(s, { ambientC: s === 45_000 ? -9.5 : -4 });
     const shell = expectSameAsFull(g.events);
     expect(shell.episodes[0]).toMatchObject({ outcome: 'interrupted', minAmbientAfterC: -9.5, freezeExposure: 'atRisk', nextKeyOnAt: at(40_010) });
@@ -94,9 +98,7 @@ describe('judging in a window', () => {
   });
 
   it('two interruptions before a completed purge each take the readings after their own key-off', () => {
-    const g = keyedOff(undefined, { ambientC: -3 });
-    g.lost(38);
-    g.boot(40_000, { atS: 38, cause: 'supply-lost' });
+    const g = interruptedThenBoot(-3);
     for (let s = 40_010; s < 41_000; s += 5) g.on(s, { ambientC: s === 40_500 ? -6 : -1 });
     g.off(41_000, { ambientC: -2 });
     g.lost(41_020);
@@ -115,9 +117,7 @@ describe('judging in a window', () => {
   });
 
   it('past the hold limit an interruption leaves the context and its figures stay as they were', () => {
-    const g = keyedOff(undefined, { ambientC: -3 });
-    g.lost(38);
-    g.boot(150, { atS: 38, cause: 'supply-lost' });
+    const g = interruptedThenBoot(-3, 150);
     g.on(160, { ambientC: -5 });
     // A hold limit of 60 s past the purge's end (120 s): the judgement that finds it past is its last.
     g.on(40_000, { ambientC: -8 });

@@ -25,13 +25,27 @@ async function gatewayFor(id: string): Promise<TestGateway> {
 const memory = (unitId: string) => t.service.ingest.book.peek(unitId)!;
 const episodes = async (unitId: string) => (await get(`/api/episodes?unitId=${unitId}`)).sort((a: { keyOffAt: string }, b: { keyOffAt: string }) => a.keyOffAt.localeCompare(b.keyOffAt));
 
-/** Key-off at -3 °C, supply lost 38 s into the purge (boot 3), then the next boot's record. */
-async function interrupted(gw: TestGateway, m: MessageSeq, t0: number) {
+/**
+ * A new gateway for `unitId`: key-off at -3 °C, supply lost 38 s into the purge (boot 3), then the next
+ * boot's record an hour later. Returns when that next boot's driving may start.
+ */
+async function afterInterruption(unitId: string) {
+  const gw = await gatewayFor(unitId);
+  const m = new MessageSeq(3);
+  const t0 = Date.now() - 6 * 3_600_000;
   await gw.publish('telemetry', m.telemetry(t0, 'on', 13.9));
   await gw.publish('telemetry', m.telemetry(t0 + 5_000, 'off', 12.6, { ambientC: -3 }));
   await gw.publish('power', m.power(t0 + 43_000, 'supply-lost', 2.1));
   m.nextBoot();
   await gw.publish('power', m.power(t0 + 3_600_000, 'boot', 12.4, { ts: t0 + 43_000, cause: 'supply-lost' }));
+  return { gw, m, morning: t0 + 3_600_000 + 5_000 };
+}
+
+/** A key-off at `at` and samples every 10 s to 130 s, past the 120 s purge: a purge held to its end. */
+function heldPurge(m: MessageSeq, at: number, ambientC: number) {
+  const messages = [m.telemetry(at, 'off', 12.6, { ambientC })];
+  for (let s = 10; s <= 130; s += 10) messages.push(m.telemetry(at + s * 1_000, 'off', 12.5, { ambientC }));
+  return messages;
 }
 
 /** Key-on samples every 5 s from `from`, at -4 °C unless `cold` says otherwise for a sample's index. */
@@ -41,11 +55,7 @@ async function drive(gw: TestGateway, m: MessageSeq, from: number, count: number
 
 describe('the lines stay wet after an interrupted purge', () => {
   it('a day of driving after it: the figures take every reading, the memory keeps a few events, a late reading still counts', async () => {
-    const gw = await gatewayFor('WL-1');
-    const m = new MessageSeq(3);
-    const t0 = Date.now() - 6 * 3_600_000;
-    await interrupted(gw, m, t0);
-    const morning = t0 + 3_600_000 + 5_000;
+    const { gw, m, morning } = await afterInterruption('WL-1');
     await drive(gw, m, morning, 150, { 60: -9 });
     // One reading of the drive is held back by the network and comes in at the end.
     const late = m.telemetry(morning + 150 * 5_000, 'on', 13.9, { ambientC: -13 });
@@ -64,11 +74,7 @@ describe('the lines stay wet after an interrupted purge', () => {
   });
 
   it('rebuilt from the database, the unit carries the stored figures on, and a completed purge closes them', async () => {
-    const gw = await gatewayFor('WL-2');
-    const m = new MessageSeq(3);
-    const t0 = Date.now() - 6 * 3_600_000;
-    await interrupted(gw, m, t0);
-    const morning = t0 + 3_600_000 + 5_000;
+    const { gw, m, morning } = await afterInterruption('WL-2');
     await drive(gw, m, morning, 20, { 5: -7 });
     // A stop with the key back on 20 s into the purge: resumed, final, the lines still wet.
     const stop = morning + 20 * 5_000;
@@ -84,8 +90,7 @@ describe('the lines stay wet after an interrupted purge', () => {
 
     // A purge held to its end: the lines are emptied, later readings no longer count.
     const last = stop + 20_000 + 41 * 5_000;
-    await gw.publish('telemetry', m.telemetry(last, 'off', 12.6, { ambientC: -5 }));
-    for (let s = 10; s <= 130; s += 10) await gw.publish('telemetry', m.telemetry(last + s * 1_000, 'off', 12.5, { ambientC: -5 }));
+    for (const msg of heldPurge(m, last, -5)) await gw.publish('telemetry', msg);
     await drive(gw, m, last + 600_000, 3, { 0: -25, 1: -25, 2: -25 });
     list = await episodes('WL-2');
     expect(list.map((e: { outcome: string }) => e.outcome)).toEqual(['interrupted', 'resumed', 'completed']);
@@ -95,16 +100,11 @@ describe('the lines stay wet after an interrupted purge', () => {
   });
 
   it('a completed purge that arrives late into an old gap closes the figures too', async () => {
-    const gw = await gatewayFor('WL-3');
-    const m = new MessageSeq(3);
-    const t0 = Date.now() - 6 * 3_600_000;
-    await interrupted(gw, m, t0);
-    const morning = t0 + 3_600_000 + 5_000;
+    const { gw, m, morning } = await afterInterruption('WL-3');
     await drive(gw, m, morning, 3);
     // A whole stop with a purge held to its end is held back by the network...
     const stop = morning + 3 * 5_000;
-    const held = [m.telemetry(stop, 'off', 12.6, { ambientC: -6 })];
-    for (let s = 10; s <= 130; s += 10) held.push(m.telemetry(stop + s * 1_000, 'off', 12.5, { ambientC: -6 }));
+    const held = heldPurge(m, stop, -6);
     // ...while the drive after it arrives.
     await drive(gw, m, stop + 600_000, 10);
     expect(memory('WL-3').context?.wet).toHaveLength(1);
