@@ -5,11 +5,11 @@ import { GroupCommit } from './group-commit';
 import { GatewayDirectory } from './gateway-directory';
 import { createAccept, type IngestCounters } from './accept';
 import type { IngestItem, MessageItem, QuarantineItem } from './items';
-import { CopyInBatch, inBatchTransaction, insertMessages, insertMessagesAlone, insertQuarantine, messageKey, type FreshMessages } from './store';
+import { CopyInBatch, inBatchTransaction, insertMessages, insertQuarantine, messageKey } from './store';
 import { judgeUnitInBatch, type JudgeResult } from './unit-judge';
 import { judgeCan, linkSpan, relinkFaults, type CanOutcome } from './unit-faults';
 import { emptyWrites, writeBatch, type BatchWrites } from './batch-writes';
-import { NeedsDatabase, type UnitMemory } from './unit-memory';
+import type { UnitMemory } from './unit-memory';
 import { createFleetEvents, type EpisodeChange, type UnitChange } from './fleet-events';
 import { UnitBook } from './unit-book';
 import { positionKey } from '../detection/positions';
@@ -20,20 +20,6 @@ interface Judged {
   memory: UnitMemory;
   r: JudgeResult;
   faults: CanOutcome;
-}
-
-interface BatchJudgement {
-  judged: Judged[];
-  writes: BatchWrites;
-  /** Units whose judgement failed: their messages commit, their memory is rebuilt. */
-  failed: string[];
-}
-
-interface BatchOutcome {
-  fresh: number;
-  next: Map<string, UnitMemory>;
-  episodeChanges: EpisodeChange[];
-  failed: string[];
 }
 
 export interface IngestOptions {
@@ -119,24 +105,58 @@ export function createIngest(opts: IngestOptions) {
     const messages = items.filter((i): i is MessageItem => i.type === 'message');
     const quarantined = items.filter((i): i is QuarantineItem => i.type === 'quarantine');
     const ticks = new Set(items.flatMap((i) => (i.type === 'tick' ? [i.unitId] : [])));
-    // The usual batch is judged before anything is written, from memory alone; if it then writes nothing
-    // but its messages, they go in one COPY on its own: one round trip to the database instead of two.
-    const ahead = dedupe || opts.shared ? null : await judgeAhead(messages, ticks);
-    let outcome: BatchOutcome;
-    if (ahead && !quarantined.length && writesNothing(ahead)) {
-      await insertMessagesAlone(sequelize, messages);
-      outcome = { fresh: messages.length, ...settle(ahead) };
-    } else {
-      outcome = await inBatchTransaction(sequelize, async (t) => {
-        const fresh = await insertMessages(t, messages, dedupe);
-        await t.open(); // a batch of ticks or refusals only: no COPY opened it
-        await insertQuarantine(sequelize, t, quarantined);
-        const judgement = ahead ?? (await judgeAll(t, freshByUnit(messages, fresh), ticks));
-        await writeBatch(sequelize, t, judgement.writes);
-        for (const j of judgement.judged) await relinkFor(t, j);
-        return { fresh: fresh.size, ...settle(judgement) };
-      });
-    }
+    const outcome = await inBatchTransaction(sequelize, async (t) => {
+      const fresh = await insertMessages(t, messages, dedupe);
+      await t.open(); // a batch of ticks or refusals only: no COPY opened it
+      await insertQuarantine(sequelize, t, quarantined);
+      const byUnit = new Map<string, MessageItem[]>();
+      const seen = new Set<string>();
+      for (const m of messages) {
+        if (!fresh.all) {
+          const k = messageKey(m);
+          if (!fresh.keys.has(k) || seen.has(k)) continue; // a duplicate: the first accepted copy already won
+          seen.add(k);
+        }
+        const list = byUnit.get(m.unitId) ?? [];
+        list.push(m);
+        byUnit.set(m.unitId, list);
+      }
+      // Sorted, so that workers taking units' locks in one batch never deadlock one another.
+      const units = [...new Set([...byUnit.keys(), ...ticks])].sort();
+      const next = new Map<string, UnitMemory>();
+      const failed: string[] = [];
+      const writes = emptyWrites();
+      const judged: Judged[] = [];
+      for (const unitId of units) {
+        let mem = await book.get(unitId, t);
+        if (!mem) continue;
+        // Counted even if the judgement below fails: no worker may keep trusting a memory that lacks
+        // the messages this batch stores.
+        const version = opts.shared ? await claimUnit(t, unitId) : null;
+        try {
+          // Another worker judged this unit since our memory was made: start again from the database.
+          if (version !== null && version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
+          const j = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
+          if (version !== null) j.memory.version = version;
+          collect(writes, j);
+          judged.push(j);
+        } catch (err) {
+          // Judging only reads, so nothing of this unit is half-written; its raw messages still commit,
+          // and its memory is rebuilt from the database next time.
+          failed.push(unitId);
+          judgeErrors.count++;
+          log.error({ err, unitId }, 'judging a unit failed; its messages are stored');
+        }
+      }
+      await writeBatch(sequelize, t, writes);
+      const episodeChanges: EpisodeChange[] = [];
+      for (const j of judged) {
+        await relinkFor(t, j);
+        next.set(j.unitId, j.memory);
+        for (const c of j.r.changed) episodeChanges.push({ unitId: j.unitId, id: c.id, episode: c.episode, before: j.r.before.get(positionKey(c.episode.keyOff)) ?? null });
+      }
+      return { fresh: fresh.size, next, episodeChanges, failed };
+    });
     counters.accepted += outcome.fresh;
     counters.duplicates += messages.length - outcome.fresh;
     for (const unitId of outcome.failed) {
@@ -153,83 +173,6 @@ export function createIngest(opts: IngestOptions) {
     if (outcome.episodeChanges.length) events.emit('episodes', outcome.episodeChanges);
   }
 
-  /** The batch's new messages by unit (a duplicate is dropped: the first accepted copy already won). */
-  function freshByUnit(messages: MessageItem[], fresh: FreshMessages): Map<string, MessageItem[]> {
-    const byUnit = new Map<string, MessageItem[]>();
-    const seen = new Set<string>();
-    for (const m of messages) {
-      if (!fresh.all) {
-        const k = messageKey(m);
-        if (!fresh.keys.has(k) || seen.has(k)) continue;
-        seen.add(k);
-      }
-      const list = byUnit.get(m.unitId) ?? [];
-      list.push(m);
-      byUnit.set(m.unitId, list);
-    }
-    return byUnit;
-  }
-
-  /**
-   * Judges the batch's units and collects their writes. `t` null: ahead of the batch's writes, from memory
-   * alone; null comes back where a unit is not in memory or its judgement would read the database.
-   */
-  async function judgeAll(t: Transaction, byUnit: Map<string, MessageItem[]>, ticks: Set<string>): Promise<BatchJudgement>;
-  async function judgeAll(t: null, byUnit: Map<string, MessageItem[]>, ticks: Set<string>): Promise<BatchJudgement | null>;
-  async function judgeAll(t: Transaction | null, byUnit: Map<string, MessageItem[]>, ticks: Set<string>): Promise<BatchJudgement | null> {
-    // Sorted, so that workers taking units' locks in one batch never deadlock one another.
-    const units = [...new Set([...byUnit.keys(), ...ticks])].sort();
-    const out: BatchJudgement = { judged: [], writes: emptyWrites(), failed: [] };
-    for (const unitId of units) {
-      let mem = t ? await book.get(unitId, t) : book.peek(unitId);
-      if (!mem) {
-        if (t) continue; // not a unit (any more)
-        return null;
-      }
-      // Counted even if the judgement below fails: no worker may keep trusting a memory that lacks
-      // the messages this batch stores.
-      const version = t && opts.shared ? await claimUnit(t, unitId) : null;
-      try {
-        // Another worker judged this unit since our memory was made: start again from the database.
-        if (t && version !== null && version !== mem.version + 1) mem = await book.rebuild(mem.profile, t);
-        const j = await judgeOne(t, mem, byUnit.get(unitId) ?? []);
-        if (version !== null) j.memory.version = version;
-        collect(out.writes, j);
-        out.judged.push(j);
-      } catch (err) {
-        if (err instanceof NeedsDatabase) return null;
-        // Judging only reads, so nothing of this unit is half-written; its raw messages still commit,
-        // and its memory is rebuilt from the database next time.
-        out.failed.push(unitId);
-        judgeErrors.count++;
-        log.error({ err, unitId }, 'judging a unit failed; its messages are stored');
-      }
-    }
-    return out;
-  }
-
-  /** Ahead of the writes every message counts as new: a copy among them fails the COPY, and the batch goes again told apart. */
-  function judgeAhead(messages: MessageItem[], ticks: Set<string>) {
-    return judgeAll(null, freshByUnit(messages, { all: true, size: messages.length }), ticks);
-  }
-
-  /** Nothing to write but the messages: no episode, fault, tracker state or fault link changed. */
-  function writesNothing(b: BatchJudgement): boolean {
-    const w = b.writes;
-    return !w.episodes.length && !w.deleted.length && !w.faults.length && !w.faultResets.length && !w.dm1.length && b.judged.every((j) => relinkSpans(j).length === 0);
-  }
-
-  /** What the batch's callers and the memory take from its judgement once it is committed. */
-  function settle(b: BatchJudgement): Omit<BatchOutcome, 'fresh'> {
-    const next = new Map<string, UnitMemory>();
-    const episodeChanges: EpisodeChange[] = [];
-    for (const j of b.judged) {
-      next.set(j.unitId, j.memory);
-      for (const c of j.r.changed) episodeChanges.push({ unitId: j.unitId, id: c.id, episode: c.episode, before: j.r.before.get(positionKey(c.episode.keyOff)) ?? null });
-    }
-    return { next, episodeChanges, failed: b.failed };
-  }
-
   /** Locks the unit for this transaction and counts one more judgement of it; returns the new count. */
   async function claimUnit(t: Transaction, unitId: string): Promise<number> {
     await sequelize.query('SELECT pg_advisory_xact_lock(hashtext($1))', { bind: [unitId], transaction: t });
@@ -241,7 +184,7 @@ export function createIngest(opts: IngestOptions) {
   }
 
   /** A unit's judgement in this batch: reads only; its writes are collected for the batch. */
-  async function judgeOne(t: Transaction | null, mem: UnitMemory, items: MessageItem[]): Promise<Judged> {
+  async function judgeOne(t: Transaction, mem: UnitMemory, items: MessageItem[]): Promise<Judged> {
     const wall = wallNow();
     const r = await judgeUnitInBatch(sequelize, t, mem, items.map((i) => ({ event: i.event, receivedAt: i.receivedAt })), (m) => book.clock(m, wall));
     const can = items.filter((i) => i.frames).map((i) => ({ position: i.event, frames: i.frames! }));
@@ -258,18 +201,13 @@ export function createIngest(opts: IngestOptions) {
   }
 
   /** Links can change where a fault arrived or where an interrupted episode changed (before or after). */
-  function relinkSpans(j: Judged): [number, number][] {
+  async function relinkFor(t: Transaction, j: Judged) {
     const spans: [number, number][] = [];
     if (j.faults.recomputed) spans.push([0, Date.UTC(9999, 0, 1)]); // every fault of the unit (a date PostgreSQL can hold)
     for (const f of j.faults.activations) spans.push([f.at, f.at]);
     for (const c of j.r.changed) {
       for (const s of [linkSpan(c.episode), linkSpan(j.r.before.get(positionKey(c.episode.keyOff)))]) if (s) spans.push(s);
     }
-    return spans;
-  }
-
-  async function relinkFor(t: Transaction, j: Judged) {
-    const spans = relinkSpans(j);
     if (!spans.length) return;
     await relinkFaults(sequelize, t, j.memory, Math.min(...spans.map((s) => s[0])), Math.max(...spans.map((s) => s[1])));
   }

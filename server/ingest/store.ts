@@ -96,31 +96,6 @@ export class CopyInBatch extends Error {
   }
 }
 
-async function copyMessages(connection: RawConnection, prefix: string, items: MessageItem[]) {
-  try {
-    const copy = connection.query(copyFrom(`${prefix}COPY messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at) FROM STDIN`));
-    await pipeline(Readable.from([copyRows(items)]), copy);
-  } catch (err) {
-    throw (err as { code?: string }).code === UNIQUE_VIOLATION ? new CopyInBatch(err) : err;
-  }
-}
-
-/**
- * A batch whose messages are all it writes (judged ahead, nothing else changed): one COPY on its own,
- * atomic by itself, one round trip to the database. A copy among its rows fails it whole (CopyInBatch),
- * nothing written, and the batch goes again in a transaction that tells the copies apart.
- */
-export async function insertMessagesAlone(sequelize: Sequelize, items: MessageItem[]): Promise<void> {
-  if (items.length === 0) return;
-  const manager = sequelize.connectionManager as unknown as { getConnection(o: { type: 'write' }): Promise<RawConnection>; releaseConnection(c: RawConnection): Promise<void> };
-  const connection = await manager.getConnection({ type: 'write' });
-  try {
-    await copyMessages(connection, '', items);
-  } finally {
-    await manager.releaseConnection(connection);
-  }
-}
-
 /**
  * Inserts the batch's messages and tells which were new (the rest were duplicates, recognised by the
  * primary key). The usual batch holds no copy: its rows go by COPY, the cheapest way into PostgreSQL, and
@@ -135,8 +110,13 @@ export async function insertMessages(t: BatchTransaction, items: MessageItem[], 
   // Straight through the transaction's own pg connection: Sequelize's result handling costs more than the insert.
   const connection = t.connectionOf();
   if (!dedupe) {
-    await copyMessages(connection, t.opening(), items);
-    return { all: true, size: items.length };
+    try {
+      const copy = connection.query(copyFrom(`${t.opening()}COPY messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at) FROM STDIN`));
+      await pipeline(Readable.from([copyRows(items)]), copy);
+      return { all: true, size: items.length };
+    } catch (err) {
+      throw (err as { code?: string }).code === UNIQUE_VIOLATION ? new CopyInBatch(err) : err;
+    }
   }
   await t.open();
   const rows = items.map((m) => ({ g: m.gatewayId, b: m.boot, s: m.seq, u: m.unitId, st: m.stream, k: m.kind, ts: m.payload.ts, p: m.payload, r: m.receivedAt }));

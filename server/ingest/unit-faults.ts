@@ -8,7 +8,7 @@ import { FAULT_LINK_WINDOW_MS } from '../../shared/protocol/limits';
 import type { Episode, EventPosition } from '../detection/types';
 import type { CanFrame } from '../../shared/protocol/messages';
 import { episodeFromRow, loadEvents } from './episode-store';
-import { NeedsDatabase, type UnitMemory } from './unit-memory';
+import type { UnitMemory } from './unit-memory';
 
 export interface CanInput {
   position: EventPosition;
@@ -25,11 +25,8 @@ export interface CanOutcome {
   dm1: { snapshot: unknown; last: EventPosition } | null;
 }
 
-/**
- * Feeds new CAN messages to the tracker; one that arrives before the last fed one makes the unit's faults be
- * recomputed from its whole CAN history. Reads only; `t` null: from memory alone (NeedsDatabase otherwise).
- */
-export async function judgeCan(sequelize: Sequelize, t: Transaction | null, m: UnitMemory, can: CanInput[]): Promise<CanOutcome> {
+/** Feeds new CAN messages to the tracker; one that arrives before the last fed one makes the unit's faults be recomputed from its whole CAN history. Reads only. */
+export async function judgeCan(sequelize: Sequelize, t: Transaction, m: UnitMemory, can: CanInput[]): Promise<CanOutcome> {
   if (!can.length) return { activations: [], recomputed: false, dm1: null };
   const unitId = m.profile.unitId;
   const ordered = can.slice().sort((a, b) => comparePositions(a.position, b.position));
@@ -40,7 +37,6 @@ export async function judgeCan(sequelize: Sequelize, t: Transaction | null, m: U
     for (const c of ordered) activations.push(...m.dm1.pushAll(toTracker(c.frames)).activations);
     m.lastCan = ordered[ordered.length - 1].position;
   } else {
-    if (!t) throw new NeedsDatabase('a CAN message from before the last one fed');
     const all = await loadEvents(sequelize, unitId, { kinds: ['can'] }, t);
     const tracker = new Dm1Tracker();
     for (const r of all) activations.push(...tracker.pushAll(toTracker(r.frames ?? [])).activations);

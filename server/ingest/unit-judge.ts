@@ -7,7 +7,7 @@ import { judgeWithWindow, type JudgingWindow } from '../detection/window';
 import { foldLateFreezeExposure, mergeFreezeExposure } from '../detection/freeze';
 import { comparePositions, orderEvents, positionKey } from '../detection/positions';
 import type { Episode, JudgeInput, UnitEvent } from '../detection/types';
-import { applyWindow, cloneMemory, NeedsDatabase, type StoredEpisode, type UnitMemory } from './unit-memory';
+import { applyWindow, cloneMemory, type StoredEpisode, type UnitMemory } from './unit-memory';
 import { loadBootEvents, loadEpisodes } from './episode-store';
 
 export interface JudgeResult {
@@ -38,10 +38,9 @@ function writeChanged(episodes: Episode[], stored: Map<string, StoredEpisode>, c
   }
 }
 
-/** `t` null: judging ahead of the batch's writes, from memory alone (NeedsDatabase where that cannot do). */
 export async function judgeUnitInBatch(
   sequelize: Sequelize,
-  t: Transaction | null,
+  t: Transaction,
   current: UnitMemory,
   fresh: { event: UnitEvent; receivedAt: number }[],
   clock: (m: UnitMemory) => number,
@@ -87,10 +86,7 @@ export async function judgeUnitInBatch(
   m.state = judgement.state;
 
   // Messages from before the window: judge their boots afresh from the database (window.ts explains why).
-  if (before.length) {
-    if (!t) throw new NeedsDatabase('messages from before the judging window');
-    win = await judgeOldStretch(sequelize, t, m, win, before, now, (episodes, stored) => writeChanged(episodes, stored, changed, previousVersions), deleted);
-  }
+  if (before.length) win = await judgeOldStretch(sequelize, t, m, win, before, now, (episodes, stored) => writeChanged(episodes, stored, changed, previousVersions), deleted);
 
   applyWindow(m, win, input.events);
   return { memory: m, changed, deleted, before: previousVersions };

@@ -67,13 +67,3 @@ export function applyWindow(m: UnitMemory, win: JudgingWindow, ordered: UnitEven
   const wet = new Set((win.context.wet ?? []).map((e) => positionKey(e.keyOff)));
   for (const [key, s] of m.episodes) if (win.start && comparePositions(s.episode.keyOff, win.start) < 0 && !wet.has(key)) m.episodes.delete(key);
 }
-
-/**
- * Thrown by a judgement made before its batch is written (no transaction, nothing read) when it would
- * have to read the database after all: the batch then goes the usual way, judged inside its transaction.
- */
-export class NeedsDatabase extends Error {
-  constructor(what: string) {
-    super(`judging needs the database: ${what}`);
-  }
-}
