@@ -1,7 +1,6 @@
 // The hot path's SQL: one statement per table per batch (COPY for the raw rows), through the pool Sequelize owns.
 import { Transaction, type Sequelize } from 'sequelize';
-import { Readable } from 'node:stream';
-import { pipeline } from 'node:stream/promises';
+import { finished } from 'node:stream/promises';
 import { from as copyFrom } from 'pg-copy-streams';
 import type { MessageItem, QuarantineItem } from './items';
 
@@ -112,7 +111,10 @@ export async function insertMessages(t: BatchTransaction, items: MessageItem[], 
   if (!dedupe) {
     try {
       const copy = connection.query(copyFrom(`${t.opening()}COPY messages (gateway_id, boot, seq, unit_id, stream, kind, ts, payload, received_at) FROM STDIN`));
-      await pipeline(Readable.from([copyRows(items)]), copy);
+      // The rows as one write, then the end: a pipeline from a readable would cost an abort signal (and its
+      // DOMException) per batch. Settles once PostgreSQL has answered the COPY, or with its error.
+      copy.end(copyRows(items));
+      await finished(copy);
       return { all: true, size: items.length };
     } catch (err) {
       throw (err as { code?: string }).code === UNIQUE_VIOLATION ? new CopyInBatch(err) : err;
