@@ -12,7 +12,20 @@ import { emptyLiveUnitView, type LiveUnitView } from '../lib/context';
 import { latestEpisodes, loadDm1State, loadEvents } from './episode-store';
 import { applyWindow, newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
 
-const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+// A unit's view is made after each commit that judged it and again for the board's push, and its times
+// change far less often than that (stateSince rarely, lastSeenAt once per message): the last texts made
+// are kept in a small table by the millisecond's low bits, so most of these are looked up, not formatted.
+const ISO_SLOTS = 4096;
+const isoMs = new Float64Array(ISO_SLOTS).fill(NaN);
+const isoTexts: string[] = new Array(ISO_SLOTS).fill('');
+export const isoText = (ms: number | null) => {
+  if (ms === null) return null;
+  const slot = ms & (ISO_SLOTS - 1);
+  if (isoMs[slot] === ms) return isoTexts[slot];
+  const text = new Date(ms).toISOString(); // throws for a time that is no date, and nothing is kept
+  isoMs[slot] = ms;
+  return (isoTexts[slot] = text);
+};
 
 export const profileOf = (u: Unit): UnitProfile => ({
   unitId: u.id, depot: u.depot, purgeSeconds: u.purgeSeconds, lossThresholdV: u.lossThresholdV, linkSpns: u.linkSpns,
@@ -188,11 +201,11 @@ export class UnitBook {
     const remaining = m.state?.state === 'purging' && c !== null ? Math.max(0, Math.ceil((c - now) / 1000)) : null;
     return {
       state: m.state?.state ?? null,
-      stateSince: iso(m.state?.since ?? null),
+      stateSince: isoText(m.state?.since ?? null),
       purgeRemainingS: remaining,
       lastSupplyV: m.lastTelemetry?.supplyV ?? null,
       lastAmbientC: m.lastTelemetry?.ambientC ?? null,
-      lastSeenAt: iso(m.lastTs),
+      lastSeenAt: isoText(m.lastTs),
     };
   }
 }
