@@ -51,16 +51,17 @@ export function indicatorView(v: LiveUnitView): IndicatorView {
 export function startLiveFeed(deps: LiveFeedDeps) {
   const wss = new WebSocketServer({ noServer: true, maxPayload: 4096 });
   const peers = new Set<Peer>();
-  const pending = new Set<string>();
+  let pending = new Set<string>();
   let timer: NodeJS.Timeout | null = null;
   let timerDue = Infinity;
   let soon: NodeJS.Immediate | null = null;
   let lastPush = -Infinity;
 
-  const send = (p: Peer, msg: ServerMessage) => {
+  /** `msg` as text already (one text for every board a push goes to), or to be made for this one reader. */
+  const send = (p: Peer, msg: ServerMessage | string) => {
     if (p.ws.readyState !== p.ws.OPEN) return;
     if (p.ws.bufferedAmount > 4 * 1024 * 1024) return p.ws.terminate(); // a reader this far behind is gone
-    p.ws.send(JSON.stringify(msg));
+    p.ws.send(typeof msg === 'string' ? msg : JSON.stringify(msg));
   };
 
   const flush = () => {
@@ -70,15 +71,21 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     timerDue = Infinity;
     soon = null;
     lastPush = Date.now();
-    const ids = [...pending];
-    pending.clear();
+    const changed = pending;
+    pending = new Set();
+    const ids = [...changed];
     const sentAt = new Date().toISOString();
-    const units = ids.map((id) => toDelta(id, deps.depotOf(id), deps.view(id)));
-    const fleetMsg: ServerMessage = { type: 'units', sentAt, units };
+    let fleetText: string | null = null;
     for (const p of peers) {
-      if (p.scope === 'fleet') send(p, fleetMsg);
-      else if (p.unitId && ids.includes(p.unitId)) send(p, { type: 'switch', sentAt, unitId: p.unitId, indicator: indicatorView(deps.view(p.unitId)) });
+      if (p.scope === 'fleet') send(p, (fleetText ??= fleetUnits(ids, sentAt)));
+      else if (p.unitId && changed.has(p.unitId)) send(p, { type: 'switch', sentAt, unitId: p.unitId, indicator: indicatorView(deps.view(p.unitId)) });
     }
+  };
+
+  /** The push to the boards, as text: made once, whatever the number of boards (and not at all for none). */
+  const fleetUnits = (ids: string[], sentAt: string) => {
+    const units = ids.map((id) => toDelta(id, deps.depotOf(id), deps.view(id)));
+    return JSON.stringify({ type: 'units', sentAt, units } satisfies ServerMessage);
   };
 
   /** `stateChanged`: one of them entered another state, which the boards show without waiting (the rest ride along). */
@@ -102,7 +109,8 @@ export function startLiveFeed(deps: LiveFeedDeps) {
   };
   /** To every signed-in board (not the switch pages). */
   const broadcast = (msg: ServerMessage) => {
-    for (const p of peers) if (p.scope === 'fleet') send(p, msg);
+    let text: string | null = null;
+    for (const p of peers) if (p.scope === 'fleet') send(p, (text ??= JSON.stringify(msg)));
   };
   const episodesChanged = (unitIds: string[]) => broadcast({ type: 'episodes', unitIds: [...new Set(unitIds)] });
   deps.events.on('units', (changes) => unitsChanged(changes.map((c) => c.unitId), changes.some((c) => c.state?.state !== c.previous?.state)));
