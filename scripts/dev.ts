@@ -3,8 +3,9 @@
 import 'dotenv/config';
 import { spawn } from 'node:child_process';
 import { join } from 'node:path';
+import { SERVICE_NODE_FLAGS } from './lib/service-node-flags';
 
-const backend = spawn(process.execPath, [join('node_modules', 'tsx', 'dist', 'cli.mjs'), 'scripts/start.ts'], {
+const backend = spawn(process.execPath, [...SERVICE_NODE_FLAGS, '--import', 'tsx', 'scripts/start.ts'], {
   stdio: 'inherit',
   env: process.env,
 });

@@ -1,6 +1,7 @@
 // Child processes of the benchmark and what they cost: CPU seconds and peak resident memory from /proc.
 import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
+import { SERVICE_NODE_FLAGS } from '../lib/service-node-flags';
 
 const TICK = 100; // USER_HZ on Linux
 // `BENCH_CPU_PROF=dir` writes a V8 CPU profile of every process the benchmark starts into dir.
@@ -77,9 +78,16 @@ export interface Child {
   stop(): Promise<void>;
 }
 
+/**
+ * The service's own flags (what `npm start` gives it); `BENCH_SERVICE_FLAGS="…"` in their place, to compare
+ * (an empty value runs the service with V8's defaults).
+ */
+const serviceFlags = process.env.BENCH_SERVICE_FLAGS !== undefined ? process.env.BENCH_SERVICE_FLAGS.split(/\s+/).filter(Boolean) : SERVICE_NODE_FLAGS;
+
 export function spawnTs(script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child {
   // tsx as a loader: one process per script, so its CPU and memory are the script's own.
-  const proc = spawn(process.execPath, [...profile, '--import', 'tsx', script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const flags = script === 'server/index.ts' ? [...serviceFlags, ...profile] : profile;
+  const proc = spawn(process.execPath, [...flags, '--import', 'tsx', script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   let partial = '';
   proc.stdout!.on('data', (d: Buffer) => {
