@@ -4,11 +4,13 @@ import { readFileSync } from 'node:fs';
 import { SERVICE_NODE_FLAGS } from '../lib/service-node-flags';
 
 const TICK = 100; // USER_HZ on Linux
+/** Flags given in an environment variable, space-separated. */
+const flagsIn = (value: string) => value.split(/\s+/).filter(Boolean);
 // `BENCH_CPU_PROF=dir` writes a V8 CPU profile of every process the benchmark starts into dir.
 const profile = [
   ...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : []),
   // `BENCH_NODE_FLAGS="--flag …"`: more flags for every process (to try a V8 setting).
-  ...(process.env.BENCH_NODE_FLAGS ? process.env.BENCH_NODE_FLAGS.split(/\s+/).filter(Boolean) : []),
+  ...flagsIn(process.env.BENCH_NODE_FLAGS ?? ''),
 ];
 
 export function cpuSeconds(pid: number): number {
@@ -82,11 +84,16 @@ export interface Child {
  * The service's own flags (what `npm start` gives it); `BENCH_SERVICE_FLAGS="…"` in their place, to compare
  * (an empty value runs the service with V8's defaults).
  */
-const serviceFlags = process.env.BENCH_SERVICE_FLAGS !== undefined ? process.env.BENCH_SERVICE_FLAGS.split(/\s+/).filter(Boolean) : SERVICE_NODE_FLAGS;
+const serviceFlags = process.env.BENCH_SERVICE_FLAGS !== undefined ? flagsIn(process.env.BENCH_SERVICE_FLAGS) : SERVICE_NODE_FLAGS;
 
-export function spawnTs(script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child {
+/** The service (`server/index.ts`), started with its own Node flags. */
+export const spawnService = (env: Record<string, string>): Child => spawnNode([...serviceFlags, ...profile], 'server/index.ts', [], env);
+
+export const spawnTs = (script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child =>
+  spawnNode(profile, script, args, env, onLine);
+
+function spawnNode(flags: string[], script: string, args: string[], env: Record<string, string>, onLine?: (line: string) => void): Child {
   // tsx as a loader: one process per script, so its CPU and memory are the script's own.
-  const flags = script === 'server/index.ts' ? [...serviceFlags, ...profile] : profile;
   const proc = spawn(process.execPath, [...flags, '--import', 'tsx', script, ...args], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   let partial = '';

@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { freePort, PG_SYSTEM_USER } from '../lib/local-postgres';
-import { postgresCpu, spawnTs, treeCpu, treePeakRssMb, waitFor, type Child } from './processes';
+import { postgresCpu, spawnService, spawnTs, treeCpu, treePeakRssMb, waitFor, type Child } from './processes';
 import { createDatabase, provisionFleet, type BenchGateway } from './fleet';
 import { eventLatencies, observe, quantile } from './observer';
 import { fillHistory } from './history-data';
@@ -72,12 +72,12 @@ export async function startProduct(adminUrl: string, name: string, units: number
     ADMIN_EMAIL: ADMIN.email, ADMIN_PASSWORD: ADMIN.password, LOG_LEVEL: 'warn', DEMO: 'off', LOGIN_RATE_LIMIT: '1000',
   };
   // The service makes the schema; the fleet goes in before the ingest loads it.
-  let child = spawnTs('server/index.ts', [], env);
+  let child = spawnService(env);
   const url = `http://127.0.0.1:${port}`;
   await waitFor(async () => (await fetch(`${url}/api/health`)).status === 200, 60_000, 'the service');
   await child.stop();
   const gateways = await provisionFleet(databaseUrl, units);
-  child = spawnTs('server/index.ts', [], env);
+  child = spawnService(env);
   await waitFor(async () => (await fetch(`${url}/api/health`)).status === 200, 120_000, 'the service with its fleet');
   const login = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(ADMIN) });
   const token = ((await login.json()) as { token: string }).token;
