@@ -63,7 +63,11 @@ export function judgeWithWindow(input: JudgeInput, options: { holdLimitMs?: numb
   return { judgement: judgementOf(input, internals), window: windowOf(input, internals, options.holdLimitMs) };
 }
 
-/** An episode whose purge ended more than the hold limit ago (by the unit's clock): the window no longer holds it. */
+/**
+ * An episode whose purge ended more than the hold limit ago (by the unit's clock): the window no longer holds it.
+ * A module function, not a closure made in windowOf: that runs for every unit of every batch, and under the
+ * loader each closure made there also cost a defineProperty (it keeps functions' names).
+ */
 function heldTooLong(e: Episode, now: number, holdLimitMs: number): boolean {
   return now - (e.keyOff.ts + e.purgeSeconds * 1000) > holdLimitMs;
 }
@@ -73,9 +77,6 @@ function windowOf(input: JudgeInput, { ordered, judged, carried }: JudgedUnit, h
   if (!Number.isFinite(holdLimitMs) || holdLimitMs < 0) throw new RangeError(`holdLimitMs must be a finite ms >= 0, got ${holdLimitMs}`);
   const given: JudgeContext = input.context ?? { state: null, lastAmbient: null };
   if (ordered.length === 0) return { start: null, context: given };
-  // heldTooLong is a module function, not a closure made here: this runs for every unit of every batch, and
-  // each closure made here also cost a defineProperty (the loader keeps functions' names).
-  const now = input.now;
 
   let start = ordered.length - 1;
   for (let i = ordered.length - 1; i >= 0; i--) {
@@ -84,7 +85,7 @@ function windowOf(input: JudgeInput, { ordered, judged, carried }: JudgedUnit, h
       break;
     }
   }
-  for (const j of judged) if (!j.episode.final && !heldTooLong(j.episode, now, holdLimitMs)) start = Math.min(start, j.anchorIndex);
+  for (const j of judged) if (!j.episode.final && !heldTooLong(j.episode, input.now, holdLimitMs)) start = Math.min(start, j.anchorIndex);
   const straddled = judged.find((j) => j.anchorIndex < start && start <= j.keyOffIndex);
   if (straddled) start = straddled.anchorIndex;
 
@@ -97,7 +98,7 @@ function windowOf(input: JudgeInput, { ordered, judged, carried }: JudgedUnit, h
   const context: JudgeContext = { state: closeFold(fold, input.now), lastAmbient };
   // The carried episodes lie before the window's events, so this list is in key-off order.
   const before = [...carried, ...judged.filter((j) => j.keyOffIndex < start).map((j) => j.episode)];
-  const wet = stillWet(before, (e) => e).filter((e) => !heldTooLong(e, now, holdLimitMs));
+  const wet = stillWet(before, (e) => e).filter((e) => !heldTooLong(e, input.now, holdLimitMs));
   if (wet.length) context.wet = wet;
   return { start: positionOf(ordered[start]), context };
 }

@@ -73,18 +73,17 @@ export function startLiveFeed(deps: LiveFeedDeps) {
     lastPush = Date.now();
     const changed = pending;
     pending = new Set();
-    const ids = [...changed];
     const sentAt = new Date().toISOString();
     let fleetText: string | null = null;
     for (const p of peers) {
-      if (p.scope === 'fleet') send(p, (fleetText ??= fleetUnits(ids, sentAt)));
+      if (p.scope === 'fleet') send(p, (fleetText ??= fleetUnits(changed, sentAt)));
       else if (p.unitId && changed.has(p.unitId)) send(p, { type: 'switch', sentAt, unitId: p.unitId, indicator: indicatorView(deps.view(p.unitId)) });
     }
   };
 
   /** The push to the boards, as text: made once, whatever the number of boards (and not at all for none). */
-  const fleetUnits = (ids: string[], sentAt: string) => {
-    const units = ids.map((id) => toDelta(id, deps.depotOf(id), deps.view(id)));
+  const fleetUnits = (ids: Set<string>, sentAt: string) => {
+    const units = [...ids].map((id) => toDelta(id, deps.depotOf(id), deps.view(id)));
     return JSON.stringify({ type: 'units', sentAt, units } satisfies ServerMessage);
   };
 
