@@ -16,6 +16,8 @@ export interface BrokerOptions extends BrokerEvents {
   log: Logger;
   /** At most this many publishes wait for their commit before the broker stops reading from every connection. */
   maxUnsettled?: number;
+  /** Where to count (the broker's thread passes counters in shared memory); fresh ones by default. */
+  counters?: BrokerCounters;
 }
 
 export interface BrokerHandle {
@@ -31,7 +33,7 @@ export interface BrokerHandle {
 }
 
 export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
-  const counters: BrokerCounters = { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0, readPauses: 0 };
+  const counters: BrokerCounters = opts.counters ?? { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0, readPauses: 0 };
   const onRefuse = (id: string, reason: string) => opts.log.warn({ gatewayId: id, reason }, 'broker refused');
   const auth = createAuthenticate(opts.checkCredential, counters, onRefuse);
   const gate = new ReadGate(opts.maxUnsettled ?? 20_000, () => counters.readPauses++);
