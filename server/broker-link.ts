@@ -1,7 +1,7 @@
 // The service's side of MQTT, embedded or external: one shape for publishing indicators, health and revocation.
 import type { Logger } from 'pino';
 import type { Config } from './config';
-import { createBroker } from '../broker/create-broker';
+import { startBrokerThread } from '../broker/threaded-broker';
 import type { Accept, BrokerCounters } from '../broker/types';
 import { checkGatewayCredential } from './modules/gateways/credentials';
 import { startExternalIngest } from './ingest/external-subscriber';
@@ -22,7 +22,7 @@ export interface BrokerLink {
 
 export async function openBrokerLink(config: Config, accept: Accept, log: Logger): Promise<BrokerLink> {
   if (!config.MQTT_URL) {
-    const b = await createBroker({
+    const b = await startBrokerThread({
       host: config.MQTT_HOST,
       port: config.MQTT_PORT,
       log,
@@ -34,7 +34,7 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
       kind: 'embedded',
       port: b.port,
       counters: b.counters,
-      healthy: () => !b.broker.closed,
+      healthy: b.healthy,
       isConnected: b.isConnected,
       publish: b.publish,
       gatewaysChanged: async (revoked) => {
