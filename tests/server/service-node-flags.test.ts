@@ -27,7 +27,19 @@ describe("the service's Node flags", () => {
     const mb = Number(/--max-semi-space-size=(\d+)/.exec(SERVICE_NODE_FLAGS.join(' '))![1]);
     const withFlags = newSpaceMax(SERVICE_NODE_FLAGS);
     const without = newSpaceMax([]);
-    expect(withFlags).toBeGreaterThan(without);
+    expect(withFlags).toBeLessThan(without);
     expect(withFlags).toBe(2 * mb * 1024 * 1024);
+  });
+
+  it("give the broker's worker thread the same young generation (a process-wide flag, whatever the worker's own limits)", () => {
+    // The same measure inside a worker started as broker/threaded-broker.ts starts it (execArgv: []).
+    const inWorker = (flags: string[]) => {
+      const measure = "const a=[];for(let i=0;i<4e6;i++){a.push({i});if(a.length>1e5)a.length=0}require('worker_threads').parentPort.postMessage(require('v8').getHeapSpaceStatistics().find(x=>x.space_name==='new_space').space_size)";
+      const script = `const {Worker}=require('worker_threads');const w=new Worker(${JSON.stringify(measure)},{eval:true,execArgv:[]});w.on('message',(n)=>{console.log(n);process.exit(0)})`;
+      return Number(execFileSync(process.execPath, [...flags, '-e', script], { encoding: 'utf8' }).trim());
+    };
+    const mb = Number(/--max-semi-space-size=(\d+)/.exec(SERVICE_NODE_FLAGS.join(' '))![1]);
+    expect(inWorker(SERVICE_NODE_FLAGS)).toBe(2 * mb * 1024 * 1024);
+    expect(inWorker([])).toBeGreaterThan(inWorker(SERVICE_NODE_FLAGS));
   });
 });
