@@ -7,6 +7,7 @@ import { parentPort, workerData } from 'node:worker_threads';
 import type { Logger } from 'pino';
 import { createBroker, type BrokerHandle } from './create-broker';
 import { sharedCounters, type FromThread, type ThreadInit, type ToThread } from './thread-protocol';
+import type { CredentialResult } from './types';
 
 const channel = parentPort!;
 const init = workerData as ThreadInit;
@@ -62,7 +63,7 @@ function accept(gatewayId: string, topic: string, payload: Buffer): Promise<void
 }
 
 let nextCredential = 0;
-const credentials = new Map<number, { resolve(r: { ok: boolean; service?: boolean }): void; reject(err: Error): void }>();
+const credentials = new Map<number, { resolve(r: CredentialResult): void; reject(err: Error): void }>();
 
 let handle: BrokerHandle | undefined;
 

@@ -5,7 +5,7 @@ import type { Logger } from 'pino';
 import { createAuthenticate } from './hooks/authenticate';
 import { createAuthorizePublish } from './hooks/authorize-publish';
 import { createAuthorizeSubscribe } from './hooks/authorize-subscribe';
-import type { Accept, BrokerCounters, BrokerEvents, CheckCredential } from './types';
+import { zeroCounters, type Accept, type BrokerCounters, type BrokerEvents, type CheckCredential } from './types';
 import { ReadGate } from './read-gate';
 
 export interface BrokerOptions extends BrokerEvents {
@@ -33,7 +33,7 @@ export interface BrokerHandle {
 }
 
 export async function createBroker(opts: BrokerOptions): Promise<BrokerHandle> {
-  const counters: BrokerCounters = opts.counters ?? { authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0, readPauses: 0 };
+  const counters: BrokerCounters = opts.counters ?? zeroCounters();
   const onRefuse = (id: string, reason: string) => opts.log.warn({ gatewayId: id, reason }, 'broker refused');
   const auth = createAuthenticate(opts.checkCredential, counters, onRefuse);
   const gate = new ReadGate(opts.maxUnsettled ?? 20_000, () => counters.readPauses++);

@@ -1,6 +1,6 @@
 // The messages between the service's thread and the broker's thread (broker/broker-thread.ts), and the
 // counters both see in one piece of shared memory.
-import type { BrokerCounters } from './types';
+import { zeroCounters, type BrokerCounters } from './types';
 
 export interface ThreadInit {
   host: string;
@@ -12,7 +12,7 @@ export interface ThreadInit {
   shared: SharedArrayBuffer;
 }
 
-export const COUNTER_NAMES = ['authRefused', 'publishRefused', 'oversized', 'subscribeRefused', 'acceptFailed', 'readPauses'] as const satisfies readonly (keyof BrokerCounters)[];
+const COUNTER_NAMES = Object.keys(zeroCounters()) as (keyof BrokerCounters)[];
 export const SHARED_BYTES = COUNTER_NAMES.length * Float64Array.BYTES_PER_ELEMENT;
 
 /** Counters whose fields read and write the shared slots (one writer, the broker's thread). */

@@ -3,21 +3,15 @@
 // which publishes are settled, a turn of the event loop at a time, and only then writes their PUBACKs.
 import { Worker } from 'node:worker_threads';
 import type { Logger } from 'pino';
-import type { BrokerOptions } from './create-broker';
-import type { BrokerCounters } from './types';
+import type { BrokerHandle, BrokerOptions } from './create-broker';
 import { brokerThreadModule } from './thread-bundle';
 import { SHARED_BYTES, sharedCounters, type AcceptBatch, type FromThread, type ThreadInit, type ToThread } from './thread-protocol';
 
-export interface ThreadedBrokerHandle {
-  port: number;
-  counters: BrokerCounters;
+export interface ThreadedBrokerHandle extends Pick<BrokerHandle, 'counters' | 'isConnected' | 'revoke' | 'publish' | 'close'> {
+  /** The port listened on (a restarted thread listens on the same). */
+  readonly port: number;
   /** False from the moment the thread has stopped unasked until it is listening again. */
   healthy(): boolean;
-  isConnected(gatewayId: string): boolean;
-  /** Drops a gateway's connection and its cached credential (after revocation). */
-  revoke(gatewayId: string): void;
-  publish(topic: string, payload: string, opts: { qos: 0 | 1; retain: boolean }): Promise<void>;
-  close(): Promise<void>;
   /** The thread itself, for the tests of what happens when it stops. */
   readonly thread: Worker;
 }

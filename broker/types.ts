@@ -18,6 +18,9 @@ export interface BrokerCounters {
   readPauses: number;
 }
 
+/** Counters at zero: the one list of them (the broker's thread lays its shared slots out in this order). */
+export const zeroCounters = (): BrokerCounters => ({ authRefused: 0, publishRefused: 0, oversized: 0, subscribeRefused: 0, acceptFailed: 0, readPauses: 0 });
+
 export interface BrokerEvents {
   onConnect?(gatewayId: string): void;
   onDisconnect?(gatewayId: string): void;
