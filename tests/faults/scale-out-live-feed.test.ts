@@ -1,26 +1,19 @@
 // Behind Mosquitto with two ingest workers, a board connected to one worker sees every unit change
 // state and every alert, whichever worker judged it or handled it: the workers relay them through PostgreSQL.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import pg from 'pg';
 import request from 'supertest';
-import { createTestDatabase } from '../helpers/test-db';
-import { serviceProcess, type ServiceProcess } from '../helpers/service-process';
+import type { ServiceProcess } from '../helpers/service-process';
+import { startMosquittoFleet } from '../helpers/mosquitto';
 import { ADMIN } from '../helpers/service';
 import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
 import { openLive, type LiveClient } from '../helpers/live-client';
 import { MessageSeq } from '../helpers/messages';
 import { until } from '../helpers/until';
-import { freePort } from '../../scripts/lib/local-postgres';
-import { mosquittoConf } from '../../server/modules/gateways/mosquitto-files';
 import { indicatorTopic } from '../../shared/protocol/topics';
 import { IndicatorSchema } from '../../shared/protocol/messages';
 import type { AlertView, ServerMessage, UnitDelta } from '../../shared/realtime/envelope';
 
-const MOSQUITTO = '/usr/sbin/mosquitto';
 const PURGE_S = 120;
 const cleanups: (() => Promise<void> | void)[] = [];
 let mqttUrl: string;
@@ -30,28 +23,10 @@ const tokens: Record<string, string> = {};
 type Worker = 'w1' | 'w2';
 
 beforeAll(async () => {
-  expect(existsSync(MOSQUITTO), 'mosquitto is installed (apt-get install -y mosquitto; .ci/run does it)').toBe(true);
-  const dir = mkdtempSync(join(tmpdir(), 'afterwatch-mosquitto-'));
-  mkdirSync(join(dir, 'data'));
-  const port = await freePort();
-  mqttUrl = `mqtt://127.0.0.1:${port}`;
-  writeFileSync(join(dir, 'mosquitto.conf'), mosquittoConf(dir, { host: '127.0.0.1', port, runAsRoot: process.getuid?.() === 0 }));
-  const db = await createTestDatabase();
-  dbUrl = db.url;
-  cleanups.push(db.drop);
-  const env = { MQTT_URL: mqttUrl, MQTT_SERVICE_PASSWORD: 'service-password-for-tests', MOSQUITTO_DIR: dir };
-  // Worker 1 writes the password and ACL files before Mosquitto starts; both then subscribe.
-  const w1 = await serviceProcess(db.url, { ...env, INGEST_WORKER_ID: 'w1' });
-  const startW1 = w1.start();
-  for (let i = 0; i < 100 && !existsSync(join(dir, 'acl')); i++) await new Promise((r) => setTimeout(r, 100));
-  const broker: ChildProcess = spawn(MOSQUITTO, ['-c', join(dir, 'mosquitto.conf')], { stdio: 'ignore' });
-  cleanups.push(() => void broker.kill('SIGTERM'));
-  await startW1;
-  cleanups.push(w1.stop);
-  const w2 = await serviceProcess(db.url, { ...env, INGEST_WORKER_ID: 'w2' });
-  await w2.start();
-  cleanups.push(w2.stop);
-  w = { w1, w2 };
+  const fleet = await startMosquittoFleet(['w1', 'w2'], cleanups);
+  mqttUrl = fleet.mqttUrl;
+  dbUrl = fleet.dbUrl;
+  w = { w1: fleet.workers[0], w2: fleet.workers[1] };
   for (const k of ['w1', 'w2'] as const) tokens[k] = (await request(w[k].url).post('/api/auth/login').send(ADMIN)).body.token;
 }, 90_000);
 afterAll(async () => {
