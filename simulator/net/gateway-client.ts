@@ -23,6 +23,8 @@ export interface GatewayClientOptions {
   stats: SendStats;
   onFatal: (err: Error) => void;
   onIdle: () => void;
+  /** How long the broker may refuse the credentials before the run stops (default 30 s). */
+  refusedGiveUpMs?: number;
 }
 
 const OFFLINE = JSON.stringify({ state: 'offline' }); // protocol: the will on the status topic
@@ -43,6 +45,8 @@ export class GatewayClient {
   private nextRef = 0;
   private failures = 0;
   private retryTimer: NodeJS.Timeout | null = null;
+  /** Since when the broker has refused every attempt (null: it has not, or it let the last one in). */
+  private refusedSince: number | null = null;
   private closed = false;
   private readonly pumpFn = () => this.pump();
 
@@ -75,6 +79,7 @@ export class GatewayClient {
       if (this.client !== c) return;
       this.state = 'up';
       this.failures = 0;
+      this.refusedSince = null;
       this.o.stats.connects++;
       // QoS 1: what the broker did not acknowledge before the drop goes again, first and in order.
       for (const [ref, e] of this.pending) this.send(c, ref, e, true);
@@ -82,9 +87,14 @@ export class GatewayClient {
     });
     c.on('error', (err: Error & { code?: number }) => {
       if (this.client !== c) return;
-      // CONNACK 4/5 (MQTT 3.1.1) or 134/135 (MQTT 5): the broker refuses these credentials.
+      // CONNACK 4/5 (MQTT 3.1.1) or 134/135 (MQTT 5): the broker refuses these credentials. For a while that is
+      // the service holding gateways off (behind Mosquitto, until a worker has subscribed): retried like a drop.
       if (err.code === 4 || err.code === 5 || err.code === 134 || err.code === 135) {
-        this.o.onFatal(new Error(`gateway ${this.o.gatewayId}: the broker refused its credentials (${err.message}); delete the simulator's gateway file to provision new ones`));
+        const giveUpMs = this.o.refusedGiveUpMs ?? 30_000;
+        this.refusedSince ??= Date.now();
+        if (Date.now() - this.refusedSince >= giveUpMs) {
+          this.o.onFatal(new Error(`gateway ${this.o.gatewayId}: the broker refused its credentials for ${Math.round(giveUpMs / 1000)} s (${err.message}); delete the simulator's gateway file to provision new ones`));
+        }
       }
     });
     c.on('close', () => {

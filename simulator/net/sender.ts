@@ -14,6 +14,8 @@ export interface SenderOptions {
   seed: string;
   perClientInFlight?: number;
   totalInFlight?: number;
+  /** How long a broker may refuse a gateway's credentials before the run stops (default 30 s). */
+  refusedGiveUpMs?: number;
 }
 
 const BACKLOG_LIMIT = 20_000;
@@ -54,6 +56,7 @@ export class Sender {
         this.wakeIdle();
       },
       onIdle: () => this.wakeIdle(),
+      refusedGiveUpMs: this.o.refusedGiveUpMs,
     });
     this.clients.set(gatewayId, c);
     return c;

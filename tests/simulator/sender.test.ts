@@ -52,13 +52,16 @@ describe('the MQTT sender', () => {
     expect(acceptedCount).toBeGreaterThanOrEqual(new Set(sent).size);
   }, 60_000);
 
-  it('stops with a clear error when the broker refuses a gateway\'s credentials', async () => {
+  it('retries a gateway the broker refuses, and stops with a clear error once the refusals have lasted too long', async () => {
     const run = generateScenario({ scenario: 'weekday', units: 1, seed: 'refused' });
-    const sender = new Sender({ mqttUrl: `mqtt://127.0.0.1:${broker.port}`, secrets: new Map([[run.truth.fleet[0].gatewayId, 'wrong']]), speed: 'max', simStart: 0, seed: 'x' });
+    const sender = new Sender({ mqttUrl: `mqtt://127.0.0.1:${broker.port}`, secrets: new Map([[run.truth.fleet[0].gatewayId, 'wrong']]), speed: 'max', simStart: 0, seed: 'x', refusedGiveUpMs: 2000 });
+    const began = Date.now();
     await expect((async () => {
       await sender.dispatch(run.timeline);
       await sender.drain();
-    })()).rejects.toThrow(/refused its credentials/);
+    })()).rejects.toThrow(/refused its credentials for 2 s/);
+    expect(Date.now() - began).toBeGreaterThanOrEqual(2000);
+    expect(sender.stats.reconnects).toBeGreaterThan(1);
     await sender.close();
   }, 30_000);
 });
