@@ -14,6 +14,8 @@ export interface ThreadedBrokerHandle extends Pick<BrokerHandle, 'counters' | 'i
   healthy(): boolean;
   /** The thread itself, for the tests of what happens when it stops. */
   readonly thread: Worker;
+  /** Called each time a thread that stopped unasked is listening again (its retained messages are gone with it). */
+  onRestart(fn: () => void): void;
 }
 
 /** After the thread stops unasked it is started again this much later (gateways reconnect and resend). */
@@ -30,6 +32,7 @@ export async function startBrokerThread(opts: BrokerOptions): Promise<ThreadedBr
   let running = false;
   let port = opts.port;
   let thread!: Worker;
+  const restartListeners: (() => void)[] = [];
   // Settlements of the current thread, sent once per turn of the event loop. A restarted thread numbers its
   // publishes afresh, so settlements of an older one are dropped by their generation.
   let generation = 0;
@@ -136,11 +139,25 @@ export async function startBrokerThread(opts: BrokerOptions): Promise<ThreadedBr
         for (const p of publishes.values()) p.reject(new Error('broker thread stopped'));
         publishes.clear();
         log.error({ code }, 'broker thread stopped; starting it again');
-        setTimeout(() => {
-          if (!closing) start().catch((err: Error) => log.error({ err: err.message }, 'broker thread did not start again'));
-        }, RESTART_MS).unref();
+        restartLater(0);
       });
     });
+  }
+
+  /** After an unasked stop: a new thread on the same port, tried again (the pause doubling up to 5 s) until one listens. */
+  function restartLater(attempt: number) {
+    setTimeout(() => {
+      if (closing) return;
+      start().then(
+        () => {
+          for (const fn of restartListeners) fn();
+        },
+        (err: Error) => {
+          log.error({ err: err.message, attempt }, 'broker thread did not start again; trying again');
+          restartLater(attempt + 1);
+        },
+      );
+    }, Math.min(RESTART_MS * 2 ** attempt, 5000)).unref();
   }
 
   await start();
@@ -172,5 +189,6 @@ export async function startBrokerThread(opts: BrokerOptions): Promise<ThreadedBr
     get thread() {
       return thread;
     },
+    onRestart: (fn) => void restartListeners.push(fn),
   };
 }

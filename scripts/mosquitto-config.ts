@@ -18,9 +18,11 @@ async function main() {
   writeFileSync(join(dir, 'mosquitto.conf'), mosquittoConf(dir, { host: config.MQTT_HOST, port, runAsRoot: process.getuid?.() === 0 }));
   const db = await connectDb(config.DATABASE_URL);
   await migrate(db.sequelize);
-  await writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, config.MQTT_SERVICE_PASSWORD);
+  // The gateways are let in by the first worker that has subscribed (server/modules/gateways/mosquitto-files.ts).
+  await writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, config.MQTT_SERVICE_PASSWORD, { admitGateways: false });
   await db.close();
   process.stdout.write(`wrote ${join(dir, 'mosquitto.conf')}, passwd and acl; start it with: mosquitto -c ${join(dir, 'mosquitto.conf')}\n`);
+  process.stdout.write('gateways are admitted once a worker has subscribed: start the workers with the same settings\n');
 }
 
 main().catch((err) => {

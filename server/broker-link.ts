@@ -1,4 +1,5 @@
 // The service's side of MQTT, embedded or external: one shape for publishing indicators, health and revocation.
+import type { Worker } from 'node:worker_threads';
 import type { Logger } from 'pino';
 import type { Config } from './config';
 import { startBrokerThread } from '../broker/threaded-broker';
@@ -15,6 +16,10 @@ export interface BrokerLink {
   healthy(): boolean;
   isConnected(gatewayId: string): boolean;
   publish(topic: string, payload: string, opts: { qos: 0 | 1; retain: boolean }): Promise<void>;
+  /** Called whenever the broker is back after it was lost (the embedded thread restarted, or the external broker reconnected): what it retained may be gone. */
+  onReconnect(fn: () => void): void;
+  /** The embedded broker's thread (tests stop it to see the service recover); null behind an external broker. */
+  thread(): Worker | null;
   /** After a gateway was provisioned or revoked. */
   gatewaysChanged(revokedGatewayId?: string): Promise<void>;
   close(): Promise<void>;
@@ -37,6 +42,8 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
       healthy: b.healthy,
       isConnected: b.isConnected,
       publish: b.publish,
+      onReconnect: b.onRestart,
+      thread: () => b.thread,
       gatewaysChanged: async (revoked) => {
         if (revoked) b.revoke(revoked);
       },
@@ -44,10 +51,18 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
     };
   }
   const password = config.MQTT_SERVICE_PASSWORD!;
-  const files = async () => {
-    if (config.MOSQUITTO_DIR) await writeMosquittoFiles(config.MOSQUITTO_DIR, config.MQTT_SERVICE_USERNAME, password);
+  const dir = config.MOSQUITTO_DIR;
+  // The gateways are admitted while this worker is subscribed and held off while it is not (why: mosquitto-files.ts).
+  let subscribed = false;
+  let writing: Promise<void> = Promise.resolve();
+  const files = (admitGateways: boolean) => {
+    if (!dir) return writing;
+    writing = writing
+      .then(() => writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, password, { admitGateways }))
+      .catch((err: Error) => log.error({ err: err.message, admitGateways }, 'Mosquitto password and ACL files not written'));
+    return writing;
   };
-  await files();
+  await files(false);
   const ext = await startExternalIngest({
     url: config.MQTT_URL,
     username: config.MQTT_SERVICE_USERNAME,
@@ -57,6 +72,18 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
     accept,
     log,
   });
+  subscribed = true;
+  await files(true);
+  ext.onSubscribed(() => {
+    subscribed = true;
+    void files(true);
+  });
+  ext.onLost(() => {
+    if (!subscribed) return;
+    subscribed = false;
+    log.warn('external broker lost: gateways held off in its password file until this worker has subscribed again');
+    void files(false);
+  });
   return {
     kind: 'external',
     port: 0,
@@ -64,7 +91,9 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
     healthy: ext.connected,
     isConnected: () => false, // the external broker's connection view is its own
     publish: ext.publish,
-    gatewaysChanged: files,
+    onReconnect: ext.onReconnect,
+    thread: () => null,
+    gatewaysChanged: () => files(subscribed),
     close: ext.close,
   };
 }

@@ -186,9 +186,15 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     events: ingest.events,
     gatewayOf: (unitId) => ingest.directory.activeGatewayOf(unitId),
     units: () => ingest.book.unitIds(),
-    view: (unitId) => ingest.book.view(unitId),
+    // Behind an external broker the newer of this worker's and the other workers' judgements.
+    view: unitView,
     publish: (topic, payload) => broker.publish(topic, payload, { qos: 1, retain: true }),
     log: logger('indicator'),
+  });
+  // Protocol: the lights are retained by the broker; one that restarted may have lost them, so they go again.
+  broker.onReconnect(() => {
+    logger('indicator').info('broker back: every indicator re-published');
+    indicators.republishAll();
   });
   await new Promise<void>((res, rej) => {
     http.once('error', rej);

@@ -1,5 +1,12 @@
 // Behind an external Mosquitto, the service keeps its password and ACL files from the gateways table
 // and asks it to reload them (SIGHUP) after each change.
+//
+// The gateways' entries are in the password file only while a worker of this service is subscribed.
+// Mosquitto 2.0 (Debian 12's 2.0.11, measured) keeps a persistent session and its queue across a restart
+// but not its shared subscriptions: what a gateway publishes after the restart and before a worker has
+// subscribed again is acknowledged to the gateway and dropped. So a worker that loses the broker writes the
+// file without the gateways (it is read if Mosquitto starts again), and a worker that has subscribed writes
+// them back and has Mosquitto reload it; meanwhile a gateway is refused and keeps its messages to send later.
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Gateway } from '../../db/models/gateway';
@@ -19,10 +26,13 @@ export function aclText(serviceUser: string): string {
   ].join('\n');
 }
 
-export async function passwordText(serviceUser: string, servicePassword: string): Promise<string> {
-  const gateways = await Gateway.findAll({ where: { revokedAt: null }, order: [['gatewayId', 'ASC']] });
+/** The service's own line, and the gateways' unless they are held off. */
+export async function passwordText(serviceUser: string, servicePassword: string, admitGateways: boolean): Promise<string> {
   const lines = [`${serviceUser}:${brokerPasswordHash(servicePassword)}`];
-  for (const g of gateways) if (g.brokerHash) lines.push(`${g.gatewayId}:${g.brokerHash}`);
+  if (admitGateways) {
+    const gateways = await Gateway.findAll({ where: { revokedAt: null }, order: [['gatewayId', 'ASC']] });
+    for (const g of gateways) if (g.brokerHash) lines.push(`${g.gatewayId}:${g.brokerHash}`);
+  }
   return `${lines.join('\n')}\n`;
 }
 
@@ -31,11 +41,16 @@ const writeAtomically = (file: string, text: string, mode: number) => {
   renameSync(`${file}.tmp`, file);
 };
 
-/** Writes `passwd` and `acl` into dir and signals the broker whose pid file is there, if it runs. */
-export async function writeMosquittoFiles(dir: string, serviceUser: string, servicePassword: string) {
+/**
+ * Writes `passwd` and `acl` into dir. With the gateways admitted it signals the broker whose pid file is
+ * there, if it runs, to reload them; holding them off it does not (a running broker keeps what it has; one
+ * that starts again reads the file without them).
+ */
+export async function writeMosquittoFiles(dir: string, serviceUser: string, servicePassword: string, opts: { admitGateways: boolean }) {
   mkdirSync(dir, { recursive: true });
-  writeAtomically(join(dir, 'passwd'), await passwordText(serviceUser, servicePassword), 0o644);
+  writeAtomically(join(dir, 'passwd'), await passwordText(serviceUser, servicePassword, opts.admitGateways), 0o644);
   writeAtomically(join(dir, 'acl'), aclText(serviceUser), 0o644);
+  if (!opts.admitGateways) return;
   const pidFile = join(dir, 'mosquitto.pid');
   if (existsSync(pidFile)) {
     const pid = Number(readFileSync(pidFile, 'utf8').trim());
@@ -55,6 +70,8 @@ export function mosquittoConf(dir: string, opts: { host: string; port: number; r
     '# Written by Afterwatch (npm run mosquitto:config). The service keeps passwd and acl up to date.',
     `listener ${opts.port} ${opts.host}`,
     'allow_anonymous false',
+    // Each PUBACK to a gateway and each message to a worker goes out at once, not held back by Nagle's algorithm.
+    'set_tcp_nodelay true',
     `password_file ${join(dir, 'passwd')}`,
     `acl_file ${join(dir, 'acl')}`,
     // Gateway protocol: payloads of at most 64 KiB; the rest of a PUBLISH (topic, header) fits in the margin.

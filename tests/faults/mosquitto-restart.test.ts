@@ -1,0 +1,137 @@
+// Behind Mosquitto: the access list written from the gateways table holds, and the broker's restarts lose
+// nothing. A restart as a service manager does it (SIGTERM: Mosquitto saves its sessions and queues first)
+// in the middle of a weekend; and a broker that comes back empty, whose retained lights the workers publish again.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import mqtt from 'mqtt';
+import pg from 'pg';
+import request from 'supertest';
+import { ADMIN } from '../helpers/service';
+import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
+import { startMosquittoFleet, verdictAfterQuiet, type MosquittoFleet } from '../helpers/mosquitto';
+import { MessageSeq } from '../helpers/messages';
+import { until } from '../helpers/until';
+import { indicatorTopic, uplinkTopic } from '../../shared/protocol/topics';
+import { IndicatorSchema } from '../../shared/protocol/messages';
+import { runScenarioDetailed } from '../../simulator/run-scenario';
+
+const cleanups: (() => Promise<void> | void)[] = [];
+let fleet: MosquittoFleet;
+let token: string;
+let db: pg.Client;
+
+beforeAll(async () => {
+  fleet = await startMosquittoFleet(['w1', 'w2'], cleanups);
+  token = (await request(fleet.workers[0].url).post('/api/auth/login').send(ADMIN)).body.token;
+  db = new pg.Client({ connectionString: fleet.dbUrl });
+  await db.connect();
+  cleanups.push(() => db.end());
+}, 90_000);
+afterAll(async () => {
+  for (const c of cleanups.reverse()) await c();
+});
+
+const storedOf = async (gatewayId: string | null) =>
+  Number((await db.query(gatewayId ? 'SELECT count(*) n FROM messages WHERE gateway_id = $1' : 'SELECT count(*) n FROM messages', gatewayId ? [gatewayId] : [])).rows[0].n);
+
+/** Provisions a unit through worker 1; the gateway retries until Mosquitto has reloaded its password file. */
+async function gateway(unitId: string, purgeSeconds = 120): Promise<{ gw: TestGateway; gatewayId: string; secret: string }> {
+  const g = await provision(request(fleet.workers[0].url), token, { id: unitId, purgeSeconds });
+  const gw = await until(() => connectGateway(fleet.mqttUrl, g.gatewayId, g.secret).catch(() => null), 10_000);
+  cleanups.push(() => gw.end());
+  return { gw, ...g };
+}
+
+describe('behind Mosquitto, its access list', () => {
+  it('lets a gateway read only its own light and publish only under its own id; strangers are refused', async () => {
+    const a = await gateway('MA-1');
+    const b = await gateway('MA-2');
+    // Another gateway's light: Mosquitto 2.0 (measured) grants the subscription and delivers nothing on it; the
+    // embedded broker answers 0x80 as the protocol says. Either way the light does not reach the wrong gateway.
+    const seen: string[] = [];
+    a.gw.client.on('message', (topic) => seen.push(topic));
+    const bSeen: string[] = [];
+    b.gw.client.on('message', (topic) => bSeen.push(topic));
+    await b.gw.client.subscribeAsync(indicatorTopic(b.gatewayId), { qos: 1 });
+    const m2 = new MessageSeq(1);
+    await b.gw.publish('telemetry', m2.telemetry(Date.now(), 'on', 13.9));
+    await until(() => bSeen.length > 0, 10_000); // B's light (dark: key on) is out, and retained
+    await a.gw.client.subscribeAsync(indicatorTopic(b.gatewayId), { qos: 1 });
+    const ma = new MessageSeq(1);
+    await a.gw.publish('telemetry', ma.telemetry(Date.now(), 'on', 13.9));
+    await a.gw.client.subscribeAsync(indicatorTopic(a.gatewayId), { qos: 1 });
+    // A's own retained light comes after B's would have (a broker sends retained messages in subscription order).
+    await until(() => seen.includes(indicatorTopic(a.gatewayId)), 10_000);
+    expect(seen).not.toContain(indicatorTopic(b.gatewayId));
+    // A publish under another gateway's id is dropped by the broker (MQTT 3.1.1 has no refusal to send back).
+    const forged = new MessageSeq(1);
+    await a.gw.client.publishAsync(uplinkTopic(b.gatewayId, 'telemetry'), JSON.stringify(forged.telemetry(Date.now(), 'on', 13.9)), { qos: 1 });
+    // Its own messages after it arrive, whichever worker takes them; the forged one never does.
+    for (let i = 0; i < 5; i++) await a.gw.publish('telemetry', ma.telemetry(Date.now(), 'on', 13.9));
+    await until(async () => (await storedOf(a.gatewayId)) === 6);
+    expect(await storedOf(b.gatewayId)).toBe(1);
+    const stranger = mqtt.connect(fleet.mqttUrl, { clientId: 'nobody', username: 'nobody', password: 'x', reconnectPeriod: 0 });
+    const refused = await new Promise<boolean>((res) => {
+      stranger.once('connect', () => res(false));
+      stranger.once('error', () => res(true));
+    });
+    stranger.end(true);
+    expect(refused).toBe(true);
+  });
+});
+
+describe('behind Mosquitto, a broker restart', () => {
+  it('in the middle of a weekend (SIGTERM, then started again): the gateways reconnect with jittered back-off, zero misses, zero false findings', async () => {
+    const before = await storedOf(null);
+    const run = runScenarioDetailed({
+      apiUrl: fleet.workers[0].url, mqttUrl: fleet.mqttUrl, adminEmail: ADMIN.email, adminPassword: ADMIN.password,
+      scenario: 'weekend', units: 12, seed: 'ci-mosquitto-restart', speed: 'max',
+      dataDir: mkdtempSync(join(tmpdir(), 'afterwatch-sim-')), truthPath: null, progress: false,
+    });
+    // A good part of the weekend in, then the broker goes down with the rest in the gateways and in its queues.
+    await until(async () => (await storedOf(null)) - before >= 4000, 60_000);
+    await fleet.stopBroker('SIGTERM');
+    await new Promise((r) => setTimeout(r, 1000));
+    fleet.startBroker();
+    const { truth, summary } = await run;
+    // The simulator's gateways lost their connection and came back on their own.
+    expect(Number(/unplanned reconnect attempts (\d+)/.exec(summary)?.[1])).toBeGreaterThan(0);
+    const verdict = await verdictAfterQuiet(fleet, truth);
+    expect(verdict.misses).toEqual([]);
+    expect(verdict.falseFindings).toEqual([]);
+    const doubled = await db.query(`SELECT count(*) n FROM (SELECT unit_id, key_off_at FROM episodes GROUP BY unit_id, key_off_at HAVING count(*) > 1) d`);
+    expect(Number(doubled.rows[0].n)).toBe(0);
+  }, 240_000);
+
+  it('that comes back empty (its persistence file lost): the workers reconnect and publish every light again', async () => {
+    const g = await provision(request(fleet.workers[0].url), token, { id: 'ME-1', purgeSeconds: 600 });
+    const lights: string[] = [];
+    let connects = 0;
+    // A gateway retries a refusal too: until a worker has subscribed again, the gateways are held off.
+    const c = mqtt.connect(fleet.mqttUrl, { clientId: g.gatewayId, username: g.gatewayId, password: g.secret, clean: false, reconnectPeriod: 300, reconnectOnConnackError: true, protocolVersion: 4 });
+    cleanups.push(() => void c.end(true));
+    c.on('connect', () => {
+      connects++;
+      c.subscribe(indicatorTopic(g.gatewayId), { qos: 1 });
+    });
+    c.on('error', () => {}); // refused while the broker is down or the gateways are held off: mqtt.js retries
+    c.on('message', (_t, payload) => lights.push(IndicatorSchema.parse(JSON.parse(payload.toString())).state));
+    await until(() => connects >= 1, 10_000);
+    const m = new MessageSeq(1);
+    const pub = (body: object) => c.publishAsync(uplinkTopic(g.gatewayId, 'telemetry'), JSON.stringify(body), { qos: 1 });
+    await pub(m.telemetry(Date.now() - 1000, 'on', 13.9));
+    await pub(m.telemetry(Date.now() - 500, 'off', 12.6));
+    await until(() => lights.includes('hold'), 10_000);
+    const mark = lights.length;
+    const connectsBefore = connects;
+    await fleet.stopBroker('SIGKILL');
+    rmSync(join(fleet.dir, 'data', 'mosquitto.db'), { force: true });
+    fleet.startBroker();
+    await until(() => connects > connectsBefore, 15_000);
+    // The purge is still running (600 s): the light published again is hold.
+    await until(() => lights.length > mark, 15_000);
+    expect(new Set(lights.slice(mark))).toEqual(new Set(['hold']));
+  }, 60_000);
+});
