@@ -1,15 +1,12 @@
 // The broker restarts (with the service, or its thread alone): gateways reconnect, and the service
 // re-publishes every unit's indicator, so a gateway that subscribes again finds its light retained.
 import { afterAll, describe, expect, it } from 'vitest';
-import mqtt from 'mqtt';
 import { createTestDatabase } from '../helpers/test-db';
 import { serviceProcess } from '../helpers/service-process';
 import { ADMIN, startTestService } from '../helpers/service';
-import { provision } from '../helpers/gateway';
+import { provision, watchLight } from '../helpers/gateway';
 import { MessageSeq } from '../helpers/messages';
 import { until } from '../helpers/until';
-import { indicatorTopic, uplinkTopic } from '../../shared/protocol/topics';
-import { IndicatorSchema } from '../../shared/protocol/messages';
 
 const cleanups: (() => Promise<void> | void)[] = [];
 afterAll(async () => {
@@ -29,27 +26,19 @@ describe('a broker restart', () => {
     await post('/api/units', { id: 'BR-1', name: 'Broker restart', depot: 'North', systemVoltage: 12, purgeSeconds: 600 });
     const { secret } = await post('/api/gateways', { gatewayId: 'gw-BR-1', unitId: 'BR-1' });
     // A gateway as the protocol describes it: persistent session, reconnecting on its own.
-    const client = mqtt.connect(svc.mqttUrl, { clientId: 'gw-BR-1', username: 'gw-BR-1', password: secret, clean: false, reconnectPeriod: 200, protocolVersion: 4 });
-    cleanups.push(() => void client.end(true));
-    const lights: string[] = [];
-    let connects = 0;
-    client.on('connect', () => {
-      connects++;
-      client.subscribe(indicatorTopic('gw-BR-1'), { qos: 1 });
-    });
-    client.on('error', () => {}); // refused while the service is down: mqtt.js keeps retrying
-    client.on('message', (_t, payload) => lights.push(IndicatorSchema.parse(JSON.parse(payload.toString())).state));
-    await until(() => connects === 1);
+    const gw = watchLight(svc.mqttUrl, 'gw-BR-1', secret);
+    cleanups.push(gw.end);
+    const { lights } = gw;
+    await until(() => gw.connects() === 1);
     const m = new MessageSeq(1);
     const t0 = Date.now() - 1000;
-    const pub = (kind: 'telemetry', body: object) => new Promise<void>((res, rej) => client.publish(uplinkTopic('gw-BR-1', kind), JSON.stringify(body), { qos: 1 }, (e) => (e ? rej(e) : res())));
-    await pub('telemetry', m.telemetry(t0, 'on', 13.9));
-    await pub('telemetry', m.telemetry(t0 + 500, 'off', 12.6));
+    await gw.telemetry(m.telemetry(t0, 'on', 13.9));
+    await gw.telemetry(m.telemetry(t0 + 500, 'off', 12.6));
     await until(() => lights.includes('hold'));
     await svc.kill9();
     const before = lights.length;
     await svc.start();
-    await until(() => connects >= 2, 15_000);
+    await until(() => gw.connects() >= 2, 15_000);
     // The purge is still running (600 s): the re-published light is hold again.
     await until(() => lights.length > before, 15_000);
     expect(lights.slice(before)).toContain('hold');
@@ -61,42 +50,30 @@ describe('a broker restart', () => {
     const token = await t.token();
     const purging = await provision(t.api, token, { id: 'BT-1', purgeSeconds: 600 });
     const safe = await provision(t.api, token, { id: 'BT-2', purgeSeconds: 10 });
-    const lights = new Map<string, string[]>();
-    const connects = new Map<string, number>();
-    const clients = [purging, safe].map(({ gatewayId, secret }) => {
-      lights.set(gatewayId, []);
-      connects.set(gatewayId, 0);
-      const c = mqtt.connect(t.mqttUrl, { clientId: gatewayId, username: gatewayId, password: secret, clean: false, reconnectPeriod: 200, protocolVersion: 4 });
-      cleanups.push(() => void c.end(true));
-      c.on('connect', () => {
-        connects.set(gatewayId, connects.get(gatewayId)! + 1);
-        c.subscribe(indicatorTopic(gatewayId), { qos: 1 });
-      });
-      c.on('error', () => {});
-      c.on('message', (_t, payload) => lights.get(gatewayId)!.push(IndicatorSchema.parse(JSON.parse(payload.toString())).state));
-      return c;
+    const [held, cleared] = [purging, safe].map(({ gatewayId, secret }) => {
+      const gw = watchLight(t.mqttUrl, gatewayId, secret);
+      cleanups.push(gw.end);
+      return gw;
     });
-    await until(() => [...connects.values()].every((n) => n === 1));
-    const pub = (c: mqtt.MqttClient, gatewayId: string, body: object) =>
-      new Promise<void>((res, rej) => c.publish(uplinkTopic(gatewayId, 'telemetry'), JSON.stringify(body), { qos: 1 }, (e) => (e ? rej(e) : res())));
+    await until(() => held.connects() === 1 && cleared.connects() === 1);
     const t0 = Date.now() - 60_000;
     const m1 = new MessageSeq(1);
-    await pub(clients[0], purging.gatewayId, m1.telemetry(Date.now() - 1000, 'on', 13.9));
-    await pub(clients[0], purging.gatewayId, m1.telemetry(Date.now() - 500, 'off', 12.6));
+    await held.telemetry(m1.telemetry(Date.now() - 1000, 'on', 13.9));
+    await held.telemetry(m1.telemetry(Date.now() - 500, 'off', 12.6));
     // The second unit's purge was held to its end a minute ago: safe to isolate.
     const m2 = new MessageSeq(1);
-    await pub(clients[1], safe.gatewayId, m2.telemetry(t0, 'on', 13.9));
-    await pub(clients[1], safe.gatewayId, m2.telemetry(t0 + 1000, 'off', 12.6));
-    await pub(clients[1], safe.gatewayId, m2.telemetry(t0 + 12_000, 'off', 12.5));
-    await until(() => lights.get(purging.gatewayId)!.includes('hold') && lights.get(safe.gatewayId)!.includes('clear'));
+    await cleared.telemetry(m2.telemetry(t0, 'on', 13.9));
+    await cleared.telemetry(m2.telemetry(t0 + 1000, 'off', 12.6));
+    await cleared.telemetry(m2.telemetry(t0 + 12_000, 'off', 12.5));
+    await until(() => held.lights.includes('hold') && cleared.lights.includes('clear'));
 
-    const before = new Map([...lights].map(([id, l]) => [id, l.length]));
+    const [heldBefore, clearedBefore] = [held.lights.length, cleared.lights.length];
     await t.service.broker.thread()!.terminate();
-    await until(() => [...connects.values()].every((n) => n >= 2), 15_000);
-    await until(() => [...lights].every(([id, l]) => l.length > before.get(id)!), 15_000);
+    await until(() => held.connects() >= 2 && cleared.connects() >= 2, 15_000);
+    await until(() => held.lights.length > heldBefore && cleared.lights.length > clearedBefore, 15_000);
     // (Once, or twice where the gateway subscribed again just as the light went out: the same light either way.)
-    expect(new Set(lights.get(purging.gatewayId)!.slice(before.get(purging.gatewayId)))).toEqual(new Set(['hold']));
-    expect(new Set(lights.get(safe.gatewayId)!.slice(before.get(safe.gatewayId)))).toEqual(new Set(['clear']));
+    expect(new Set(held.lights.slice(heldBefore))).toEqual(new Set(['hold']));
+    expect(new Set(cleared.lights.slice(clearedBefore))).toEqual(new Set(['clear']));
     expect((await t.api.get('/api/health')).body).toMatchObject({ status: 'ok', broker: 'ok' });
   }, 60_000);
 });

@@ -9,12 +9,11 @@ import mqtt from 'mqtt';
 import pg from 'pg';
 import request from 'supertest';
 import { ADMIN } from '../helpers/service';
-import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
-import { startMosquittoFleet, verdictAfterQuiet, type MosquittoFleet } from '../helpers/mosquitto';
+import { provision, watchLight } from '../helpers/gateway';
+import { provisionBehindMosquitto, startMosquittoFleet, verdictAfterQuiet, type MosquittoFleet } from '../helpers/mosquitto';
 import { MessageSeq } from '../helpers/messages';
 import { until } from '../helpers/until';
 import { indicatorTopic, uplinkTopic } from '../../shared/protocol/topics';
-import { IndicatorSchema } from '../../shared/protocol/messages';
 import { runScenarioDetailed } from '../../simulator/run-scenario';
 
 const cleanups: (() => Promise<void> | void)[] = [];
@@ -36,12 +35,10 @@ afterAll(async () => {
 const storedOf = async (gatewayId: string | null) =>
   Number((await db.query(gatewayId ? 'SELECT count(*) n FROM messages WHERE gateway_id = $1' : 'SELECT count(*) n FROM messages', gatewayId ? [gatewayId] : [])).rows[0].n);
 
-/** Provisions a unit through worker 1; the gateway retries until Mosquitto has reloaded its password file. */
-async function gateway(unitId: string, purgeSeconds = 120): Promise<{ gw: TestGateway; gatewayId: string; secret: string }> {
-  const g = await provision(request(fleet.workers[0].url), token, { id: unitId, purgeSeconds });
-  const gw = await until(() => connectGateway(fleet.mqttUrl, g.gatewayId, g.secret).catch(() => null), 10_000);
-  cleanups.push(() => gw.end());
-  return { gw, ...g };
+async function gateway(unitId: string) {
+  const g = await provisionBehindMosquitto(fleet, token, { id: unitId });
+  cleanups.push(() => g.gw.end());
+  return g;
 }
 
 describe('behind Mosquitto, its access list', () => {
@@ -107,29 +104,20 @@ describe('behind Mosquitto, a broker restart', () => {
 
   it('that comes back empty (its persistence file lost): the workers reconnect and publish every light again', async () => {
     const g = await provision(request(fleet.workers[0].url), token, { id: 'ME-1', purgeSeconds: 600 });
-    const lights: string[] = [];
-    let connects = 0;
-    // A gateway retries a refusal too: until a worker has subscribed again, the gateways are held off.
-    const c = mqtt.connect(fleet.mqttUrl, { clientId: g.gatewayId, username: g.gatewayId, password: g.secret, clean: false, reconnectPeriod: 300, reconnectOnConnackError: true, protocolVersion: 4 });
-    cleanups.push(() => void c.end(true));
-    c.on('connect', () => {
-      connects++;
-      c.subscribe(indicatorTopic(g.gatewayId), { qos: 1 });
-    });
-    c.on('error', () => {}); // refused while the broker is down or the gateways are held off: mqtt.js retries
-    c.on('message', (_t, payload) => lights.push(IndicatorSchema.parse(JSON.parse(payload.toString())).state));
-    await until(() => connects >= 1, 10_000);
+    const gw = watchLight(fleet.mqttUrl, g.gatewayId, g.secret);
+    cleanups.push(gw.end);
+    const { lights } = gw;
+    await until(() => gw.connects() >= 1, 10_000);
     const m = new MessageSeq(1);
-    const pub = (body: object) => c.publishAsync(uplinkTopic(g.gatewayId, 'telemetry'), JSON.stringify(body), { qos: 1 });
-    await pub(m.telemetry(Date.now() - 1000, 'on', 13.9));
-    await pub(m.telemetry(Date.now() - 500, 'off', 12.6));
+    await gw.telemetry(m.telemetry(Date.now() - 1000, 'on', 13.9));
+    await gw.telemetry(m.telemetry(Date.now() - 500, 'off', 12.6));
     await until(() => lights.includes('hold'), 10_000);
     const mark = lights.length;
-    const connectsBefore = connects;
+    const connectsBefore = gw.connects();
     await fleet.stopBroker('SIGKILL');
     rmSync(join(fleet.dir, 'data', 'mosquitto.db'), { force: true });
     fleet.startBroker();
-    await until(() => connects > connectsBefore, 15_000);
+    await until(() => gw.connects() > connectsBefore, 15_000);
     // The purge is still running (600 s): the light published again is hold.
     await until(() => lights.length > mark, 15_000);
     expect(new Set(lights.slice(mark))).toEqual(new Set(['hold']));

@@ -4,9 +4,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import pg from 'pg';
 import request from 'supertest';
 import type { ServiceProcess } from '../helpers/service-process';
-import { startMosquittoFleet } from '../helpers/mosquitto';
+import { provisionBehindMosquitto, startMosquittoFleet, type MosquittoFleet } from '../helpers/mosquitto';
 import { ADMIN } from '../helpers/service';
-import { connectGateway, provision, type TestGateway } from '../helpers/gateway';
+import type { TestGateway } from '../helpers/gateway';
 import { openLive, type LiveClient } from '../helpers/live-client';
 import { MessageSeq } from '../helpers/messages';
 import { until } from '../helpers/until';
@@ -16,16 +16,13 @@ import type { AlertView, ServerMessage, UnitDelta } from '../../shared/realtime/
 
 const PURGE_S = 120;
 const cleanups: (() => Promise<void> | void)[] = [];
-let mqttUrl: string;
-let dbUrl: string;
+let fleet: MosquittoFleet;
 let w: { w1: ServiceProcess; w2: ServiceProcess };
 const tokens: Record<string, string> = {};
 type Worker = 'w1' | 'w2';
 
 beforeAll(async () => {
-  const fleet = await startMosquittoFleet(['w1', 'w2'], cleanups);
-  mqttUrl = fleet.mqttUrl;
-  dbUrl = fleet.dbUrl;
+  fleet = await startMosquittoFleet(['w1', 'w2'], cleanups);
   w = { w1: fleet.workers[0], w2: fleet.workers[1] };
   for (const k of ['w1', 'w2'] as const) tokens[k] = (await request(w[k].url).post('/api/auth/login').send(ADMIN)).body.token;
 }, 90_000);
@@ -46,9 +43,7 @@ const delta = (b: LiveClient, from: number, unitId: string, state: string) =>
   until(() => b.messages.slice(from).flatMap((m) => (m.type === 'units' ? m.units : [])).find((u: UnitDelta) => u.id === unitId && u.state === state), 10_000);
 
 async function gateway(unitId: string): Promise<TestGateway> {
-  const g = await provision(request(w.w1.url), tokens.w1, { id: unitId, purgeSeconds: PURGE_S, depot: 'Relay depot' });
-  // Worker 1 rewrote Mosquitto's password file and signalled it to reload; the gateway retries until it is read.
-  return until(() => connectGateway(mqttUrl, g.gatewayId, g.secret).catch(() => null), 10_000);
+  return (await provisionBehindMosquitto(fleet, tokens.w1, { id: unitId, purgeSeconds: PURGE_S, depot: 'Relay depot' })).gw;
 }
 
 /** Publishes one message and tells which worker committed it (messages are published one at a time). */
@@ -185,7 +180,7 @@ describe('behind Mosquitto, the live feed and the views of one worker', () => {
   it('after its listening connection is cut, a worker asks the others and catches up on what it missed', async () => {
     const gw = await gateway('RC-1');
     const b1 = await board('w1');
-    const admin = new pg.Client({ connectionString: dbUrl });
+    const admin = new pg.Client({ connectionString: fleet.dbUrl });
     await admin.connect();
     cleanups.push(() => admin.end());
     const before = await metrics('w1');

@@ -13,6 +13,8 @@ import { ApiClient } from '../../simulator/net/api-client';
 import { compareEpisodes, fetchSettledEpisodes } from '../../simulator/truth/verify';
 import type { Truth } from '../../simulator/truth/truth-schema';
 import { ADMIN } from './service';
+import { connectGateway, provision, type TestGateway } from './gateway';
+import { until } from './until';
 
 export const MOSQUITTO = '/usr/sbin/mosquitto';
 
@@ -97,4 +99,19 @@ export async function verdictAfterQuiet(fleet: MosquittoFleet, truth: Truth) {
   const verdict = compareEpisodes(truth, await fetchSettledEpisodes(api, truth, 30_000, () => {}));
   if (verdict.misses.length || verdict.falseFindings.length) console.error(`worker logs on failure:\n${fleet.workers.map((w) => w.output()).join('\n---\n')}`);
   return verdict;
+}
+
+/**
+ * Provisions a unit through the first worker and connects its gateway, retrying until Mosquitto has reloaded
+ * the password file the worker rewrote.
+ */
+export async function provisionBehindMosquitto(
+  fleet: MosquittoFleet,
+  token: string,
+  unit: Parameters<typeof provision>[2],
+): Promise<{ gw: TestGateway; gatewayId: string; secret: string }> {
+  const { default: request } = await import('supertest');
+  const g = await provision(request(fleet.workers[0].url), token, unit);
+  const gw = await until(() => connectGateway(fleet.mqttUrl, g.gatewayId, g.secret).catch(() => null), 10_000);
+  return { gw, ...g };
 }
