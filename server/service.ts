@@ -182,6 +182,7 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     depotOf,
   });
   const alerts = startAlertEngine({ sequelize: db.sequelize, events: ingest.events, log: logger('alerts'), escalateAfterMs: config.ALERT_ESCALATE_MINUTES * 60_000, publish: publishAlert });
+  const indicatorLog = logger('indicator');
   const indicators = startIndicators({
     events: ingest.events,
     gatewayOf: (unitId) => ingest.directory.activeGatewayOf(unitId),
@@ -189,11 +190,11 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
     // Behind an external broker the newer of this worker's and the other workers' judgements.
     view: unitView,
     publish: (topic, payload) => broker.publish(topic, payload, { qos: 1, retain: true }),
-    log: logger('indicator'),
+    log: indicatorLog,
   });
   // Protocol: the lights are retained by the broker; one that restarted may have lost them, so they go again.
   broker.onReconnect(() => {
-    logger('indicator').info('broker back: every indicator re-published');
+    indicatorLog.info('broker back: every indicator re-published');
     indicators.republishAll();
   });
   await new Promise<void>((res, rej) => {
