@@ -1,5 +1,5 @@
 import { join } from 'node:path';
-import { startProgress, formatSummary } from './cli/progress';
+import { startProgress, formatSummary, type ProgressSource } from './cli/progress';
 import { buildFleet } from './model/fleet';
 import { ApiClient } from './net/api-client';
 import { gatewayStorePath } from './net/gateway-store';
@@ -27,6 +27,8 @@ export interface RunScenarioOptions {
   start?: number;
   /** Progress bar and summary on stderr (default: when stderr is a terminal). */
   progress?: boolean;
+  /** Called once sending begins, with the sender's live counts (tests act on the sending's progress). */
+  onSending?: (source: ProgressSource, total: number) => void;
 }
 
 export interface RunResult {
@@ -53,6 +55,7 @@ export async function runScenarioDetailed(opts: RunScenarioOptions): Promise<Run
   const showProgress = opts.progress ?? process.stderr.isTTY === true;
   const progress = showProgress ? startProgress(sender, total) : null;
   const started = Date.now();
+  opts.onSending?.(sender, total);
   try {
     await sender.dispatch(generated.timeline);
     await sender.drain();
