@@ -5,6 +5,8 @@ import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect } from 'vitest';
+import pg from 'pg';
+import request from 'supertest';
 import { createTestDatabase } from './test-db';
 import { serviceProcess, type ServiceProcess } from './service-process';
 import { freePort } from '../../scripts/lib/local-postgres';
@@ -80,7 +82,6 @@ export async function startMosquittoFleet(workerIds: string[], cleanups: (() => 
  * 6 s (longer than a worker's longest retry pause after a failed commit, 5 s) before it reads the episodes.
  */
 export async function verdictAfterQuiet(fleet: MosquittoFleet, truth: Truth) {
-  const { default: pg } = await import('pg');
   const counter = new pg.Client({ connectionString: fleet.dbUrl });
   await counter.connect();
   try {
@@ -110,7 +111,6 @@ export async function provisionBehindMosquitto(
   token: string,
   unit: Parameters<typeof provision>[2],
 ): Promise<{ gw: TestGateway; gatewayId: string; secret: string }> {
-  const { default: request } = await import('supertest');
   const g = await provision(request(fleet.workers[0].url), token, unit);
   const gw = await until(() => connectGateway(fleet.mqttUrl, g.gatewayId, g.secret).catch(() => null), 10_000);
   return { gw, ...g };
