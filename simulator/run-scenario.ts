@@ -9,6 +9,7 @@ import { generateScenario } from './scenario/generate';
 import { SCENARIOS, type ScenarioName } from './scenario/scenarios';
 import { writeTruth } from './truth/truth-file';
 import type { Truth } from './truth/truth-schema';
+import type { TimelineEntry } from './scenario/timeline';
 
 export interface RunScenarioOptions {
   apiUrl: string;
@@ -35,6 +36,20 @@ export interface RunResult {
   truth: Truth;
   truthPath: string | null;
   summary: string;
+  /** Each gateway's count of the distinct messages it sent on the topics the service stores (telemetry, can, power). */
+  sentByGateway: Map<string, number>;
+}
+
+/** Distinct (boot, seq) per gateway on the stored topics: what the service holds once it has caught up. */
+export function distinctStoredMessages(timeline: readonly TimelineEntry[]): Map<string, number> {
+  const seen = new Map<string, Set<string>>();
+  for (const e of timeline) {
+    if (e.kind !== 'publish' || !/\/(telemetry|can|power)$/.test(e.topic)) continue;
+    const set = seen.get(e.gatewayId) ?? new Set<string>();
+    set.add(`${e.payload.boot}/${e.payload.seq}`);
+    seen.set(e.gatewayId, set);
+  }
+  return new Map([...seen].map(([g, set]) => [g, set.size]));
 }
 
 /** Provisions the fleet through the API, generates the scenario, sends it over MQTT, writes the truth. */
@@ -76,7 +91,7 @@ export async function runScenarioDetailed(opts: RunScenarioOptions): Promise<Run
     truth: truthPath ?? '(not written)',
   });
   if (showProgress) process.stderr.write(`${summary}\n`);
-  return { truth: t, truthPath, summary };
+  return { truth: t, truthPath, summary, sentByGateway: distinctStoredMessages(generated.timeline) };
 }
 
 /** For tests and scripts: runs a whole scenario and returns what really happened. */

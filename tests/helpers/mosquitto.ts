@@ -77,29 +77,60 @@ export async function startMosquittoFleet(workerIds: string[], cleanups: (() => 
 }
 
 /**
- * The simulator's verdict on a run through Mosquitto. Mosquitto acknowledged the gateways at once and the
- * workers take the queued rest at their own pace, so this waits until the stored messages have been quiet for
- * 6 s (longer than a worker's longest retry pause after a failed commit, 5 s) before it reads the episodes.
+ * The simulator's verdict on a run through Mosquitto, once the workers have caught up. Mosquitto acknowledged
+ * the gateways at once and the workers take the queued rest at their own pace; after a broker restart that can
+ * take many seconds, the first of them spent on the redelivered copies of what was in flight (committed already,
+ * they add no row), so a pause in the stored rows says nothing. Caught up means every message the gateways sent
+ * is stored: each gateway's count of distinct (boot, seq) equals what it sent. Within `limitMs`; then the
+ * episodes are read once none is pending. That can take a while too: a key-off judged after the replay has
+ * ended, with no evidence after it, turns undetermined at C + 30 s by its unit's clock, and where most of the
+ * fleet is parked for the weekend the fleet's clock (their median) stands still, so the unit's own clock
+ * decides: up to purge time + 30 s of wall time after its last message.
  */
-export async function verdictAfterQuiet(fleet: MosquittoFleet, truth: Truth) {
+export async function verdictWhenStored(fleet: MosquittoFleet, run: { truth: Truth; sentByGateway: Map<string, number> }, limitMs = 150_000) {
   const counter = new pg.Client({ connectionString: fleet.dbUrl });
   await counter.connect();
+  const gateways = [...run.sentByGateway.keys()];
+  const short = async () => {
+    const { rows } = await counter.query('SELECT gateway_id, count(*) n FROM messages WHERE gateway_id = ANY($1) GROUP BY gateway_id', [gateways]);
+    const stored = new Map(rows.map((r) => [r.gateway_id as string, Number(r.n)]));
+    return gateways.filter((g) => (stored.get(g) ?? 0) < run.sentByGateway.get(g)!).map((g) => `${g}: ${stored.get(g) ?? 0} of ${run.sentByGateway.get(g)}`);
+  };
+  let missing: string[] = [];
   try {
-    let last = -1;
-    for (let stable = 0; stable < 6; ) {
-      await new Promise((r) => setTimeout(r, 1000));
-      const n = Number((await counter.query('SELECT count(*) n FROM messages')).rows[0].n);
-      stable = n === last ? stable + 1 : 0;
-      last = n;
+    for (const end = Date.now() + limitMs; ; ) {
+      missing = await short();
+      if (missing.length === 0 || Date.now() > end) break;
+      await new Promise((r) => setTimeout(r, 500));
     }
   } finally {
     await counter.end();
   }
   const api = new ApiClient(fleet.workers[fleet.workers.length - 1].url);
   await api.login(ADMIN.email, ADMIN.password);
-  const verdict = compareEpisodes(truth, await fetchSettledEpisodes(api, truth, 30_000, () => {}));
-  if (verdict.misses.length || verdict.falseFindings.length) console.error(`worker logs on failure:\n${fleet.workers.map((w) => w.output()).join('\n---\n')}`);
-  return verdict;
+  const verdict = compareEpisodes(run.truth, await fetchSettledEpisodes(api, run.truth, 180_000, () => {}));
+  if (missing.length || verdict.misses.length || verdict.falseFindings.length) {
+    console.error(`worker logs on failure:\n${fleet.workers.map((w) => w.output()).join('\n---\n')}`);
+    console.error(`stored sequence of the missed units' gateways:\n${await storedGaps(fleet.dbUrl, [...missing.map((m) => m.split(':')[0]), ...verdict.misses.map((m) => m.truth.gatewayId)])}`);
+  }
+  return { ...verdict, notStored: missing };
+}
+
+/** Each gateway's stored messages as runs of consecutive (boot, seq), so that a failure shows what never arrived. */
+async function storedGaps(dbUrl: string, gatewayIds: string[]): Promise<string> {
+  const c = new pg.Client({ connectionString: dbUrl });
+  await c.connect();
+  try {
+    const { rows } = await c.query(
+      `SELECT gateway_id, boot, min(seq) first, max(seq) last, min(ts) from_ts, max(ts) to_ts, min(received_at) first_in, max(received_at) last_in
+         FROM (SELECT *, seq - row_number() OVER (PARTITION BY gateway_id, boot ORDER BY seq) run FROM messages WHERE gateway_id = ANY($1)) r
+        GROUP BY gateway_id, boot, run ORDER BY gateway_id, boot, first`,
+      [[...new Set(gatewayIds)]],
+    );
+    return rows.slice(0, 40).map((r) => `${r.gateway_id} boot ${r.boot} seq ${r.first}..${r.last} (ts ${r.from_ts.toISOString()}..${r.to_ts.toISOString()}, received ${r.first_in.toISOString()}..${r.last_in.toISOString()})`).join('\n');
+  } finally {
+    await c.end();
+  }
 }
 
 /**
