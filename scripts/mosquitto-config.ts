@@ -19,8 +19,12 @@ async function main() {
   const db = await connectDb(config.DATABASE_URL);
   await migrate(db.sequelize);
   // The gateways are let in by the first worker that has subscribed (server/modules/gateways/mosquitto-files.ts).
-  await writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, config.MQTT_SERVICE_PASSWORD, { admitGateways: false });
+  const written = await writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, config.MQTT_SERVICE_PASSWORD, { admitGateways: false });
   await db.close();
+  if (written === 'leftWhileRunning') {
+    process.stdout.write(`wrote ${join(dir, 'mosquitto.conf')} (read at its next start); a Mosquitto runs from ${dir}, so passwd and acl were left to its workers\n`);
+    return;
+  }
   process.stdout.write(`wrote ${join(dir, 'mosquitto.conf')}, passwd and acl; start it with: mosquitto -c ${join(dir, 'mosquitto.conf')}\n`);
   process.stdout.write('gateways are admitted once a worker has subscribed: start the workers with the same settings\n');
 }

@@ -6,7 +6,7 @@ import { startBrokerThread } from '../broker/threaded-broker';
 import type { Accept, BrokerCounters } from '../broker/types';
 import { checkGatewayCredential } from './modules/gateways/credentials';
 import { startExternalIngest } from './ingest/external-subscriber';
-import { writeMosquittoFiles } from './modules/gateways/mosquitto-files';
+import { writeMosquittoFiles, type GateWrite } from './modules/gateways/mosquitto-files';
 
 export interface BrokerLink {
   kind: 'embedded' | 'external';
@@ -25,7 +25,13 @@ export interface BrokerLink {
   close(): Promise<void>;
 }
 
-export async function openBrokerLink(config: Config, accept: Accept, log: Logger): Promise<BrokerLink> {
+/** Runs fn while holding a lock that every worker of this service shares (behind an external broker, for the files they all write). */
+export type SharedLock = <T>(fn: () => Promise<T>) => Promise<T>;
+
+/** How long a worker that lost the broker waits for that broker's process to end before it leaves the gateways in. */
+const HOLD_OFF_WAIT_MS = 30_000;
+
+export async function openBrokerLink(config: Config, accept: Accept, log: Logger, sharedLock: SharedLock = (fn) => fn()): Promise<BrokerLink> {
   if (!config.MQTT_URL) {
     const b = await startBrokerThread({
       host: config.MQTT_HOST,
@@ -52,15 +58,41 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
   }
   const password = config.MQTT_SERVICE_PASSWORD!;
   const dir = config.MOSQUITTO_DIR;
-  // The gateways are admitted while this worker is subscribed and held off while it is not (why: mosquitto-files.ts).
+  // The gateways are admitted once this worker has subscribed, and held off when the broker it lost has gone
+  // (why, and why only then: mosquitto-files.ts). The workers' writes take turns under the shared lock.
   let subscribed = false;
-  let writing: Promise<void> = Promise.resolve();
+  let writing: Promise<GateWrite | null> = Promise.resolve(null);
   const files = (admitGateways: boolean) => {
     if (!dir) return writing;
     writing = writing
-      .then(() => writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, password, { admitGateways }))
-      .catch((err: Error) => log.error({ err: err.message, admitGateways }, 'Mosquitto password and ACL files not written'));
+      .then(() => sharedLock(() => writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, password, { admitGateways })))
+      .catch((err: Error) => {
+        log.error({ err: err.message, admitGateways }, 'Mosquitto password and ACL files not written');
+        return null;
+      });
     return writing;
+  };
+  // After a lost connection: hold the gateways off as soon as no broker runs from the directory (the one that
+  // was lost may take a moment to exit after closing its sockets), unless this worker has subscribed again.
+  let holdingOff = false;
+  const holdOffOnceDown = async () => {
+    if (holdingOff) return;
+    holdingOff = true;
+    try {
+      for (const since = Date.now(); !subscribed; await new Promise((r) => setTimeout(r, 100))) {
+        const done = await files(false);
+        if (done === 'heldOff') {
+          log.warn('external broker gone: gateways held off in its password file until a worker has subscribed again');
+          return;
+        }
+        if (Date.now() - since > HOLD_OFF_WAIT_MS) {
+          log.warn('external broker connection lost but a Mosquitto still runs from its directory: gateways left in its password file');
+          return;
+        }
+      }
+    } finally {
+      holdingOff = false;
+    }
   };
   await files(false);
   const ext = await startExternalIngest({
@@ -81,8 +113,7 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
   ext.onLost(() => {
     if (!subscribed) return;
     subscribed = false;
-    log.warn('external broker lost: gateways held off in its password file until this worker has subscribed again');
-    void files(false);
+    if (dir) void holdOffOnceDown();
   });
   return {
     kind: 'external',
@@ -93,7 +124,9 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
     publish: ext.publish,
     onReconnect: ext.onReconnect,
     thread: () => null,
-    gatewaysChanged: () => files(subscribed),
+    gatewaysChanged: async () => {
+      if (subscribed) await files(true);
+    },
     close: ext.close,
   };
 }

@@ -37,6 +37,9 @@ import { mailRoutes } from './modules/mail/routes';
 import { startMail } from './modules/mail/start';
 import { depotRoutes, forecastRoutes } from './modules/forecast/routes';
 import { startForecastPoller } from './modules/forecast/start';
+
+/** The advisory lock (two-key form) under which workers write the external broker's files. */
+const BROKER_FILES_LOCK = [0x4166, 1] as const;
 import { startForecastFake } from './dev-fakes/forecast-fake';
 
 export interface ServiceOptions {
@@ -95,7 +98,14 @@ export async function startService(config: Config, opts: ServiceOptions = {}): P
   const unitView = (unitId: string) => (relay ? relay.view(unitId) : ingest.book.view(unitId));
   await ingest.start();
 
-  const broker = await openBrokerLink(config, ingest.accept, logger('broker'));
+  // Behind an external broker the workers take turns writing its password and ACL files (broker-link.ts).
+  // The two-key form of the advisory lock: a keyspace apart from the units' one-key locks (ingest.ts).
+  const filesLock = <T>(fn: () => Promise<T>) =>
+    db.sequelize.transaction(async (t) => {
+      await db.sequelize.query('SELECT pg_advisory_xact_lock($1, $2)', { bind: [BROKER_FILES_LOCK[0], BROKER_FILES_LOCK[1]], transaction: t });
+      return fn();
+    });
+  const broker = await openBrokerLink(config, ingest.accept, logger('broker'), filesLock);
 
   const ctx: AppContext = {
     config,

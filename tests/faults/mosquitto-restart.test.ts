@@ -2,7 +2,7 @@
 // nothing. A restart as a service manager does it (SIGTERM: Mosquitto saves its sessions and queues first)
 // in the middle of a weekend; and a broker that comes back empty, whose retained lights the workers publish again.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import mqtt from 'mqtt';
@@ -16,6 +16,8 @@ import { until } from '../helpers/until';
 import { indicatorTopic, uplinkTopic } from '../../shared/protocol/topics';
 import { runScenarioDetailed } from '../../simulator/run-scenario';
 import type { ProgressSource } from '../../simulator/cli/progress';
+import { connectDb } from '../../server/db/index';
+import { writeMosquittoFiles } from '../../server/modules/gateways/mosquitto-files';
 
 const cleanups: (() => Promise<void> | void)[] = [];
 let fleet: MosquittoFleet;
@@ -107,6 +109,32 @@ describe('behind Mosquitto, a broker restart', () => {
     const doubled = await db.query(`SELECT count(*) n FROM (SELECT unit_id, key_off_at FROM episodes GROUP BY unit_id, key_off_at HAVING count(*) > 1) d`);
     expect(Number(doubled.rows[0].n)).toBe(0);
   }, 480_000);
+
+  it('leaves the gateways in while a Mosquitto runs, whoever lost a connection, and holds them off only once it is down', async () => {
+    // Two workers write the same files. One that lost only its own connection must not write the file without
+    // the gateways: another worker's reload would then make the running broker drop them all.
+    const db = await connectDb(fleet.dbUrl);
+    cleanups.push(() => db.close());
+    const passwd = () => readFileSync(join(fleet.dir, 'passwd'), 'utf8');
+    const holdOff = () => writeMosquittoFiles(fleet.dir, 'afterwatch-service', 'service-password-for-tests', { admitGateways: false });
+    const g = await gateway('MH-1');
+    expect(passwd()).toContain(`${g.gatewayId}:`);
+    expect(await holdOff()).toBe('leftWhileRunning');
+    expect(passwd()).toContain(`${g.gatewayId}:`);
+    // A reload now (as after a provisioning) keeps the connected gateway connected.
+    process.kill(Number(readFileSync(join(fleet.dir, 'mosquitto.pid'), 'utf8')), 'SIGHUP');
+    const m = new MessageSeq(1);
+    await g.gw.publish('telemetry', m.telemetry(Date.now(), 'on', 13.9));
+    await until(async () => (await storedOf(g.gatewayId)) === 1, 10_000);
+    // Down: the file a restarted Mosquitto reads holds the gateways off (the workers wrote it already).
+    await fleet.stopBroker('SIGTERM');
+    await until(() => !passwd().includes(`${g.gatewayId}:`), 10_000);
+    expect(await holdOff()).toBe('heldOff');
+    expect(passwd().trim().split('\n')).toEqual([expect.stringMatching(/^afterwatch-service:/)]);
+    // Up again: the first worker to subscribe lets them back in.
+    fleet.startBroker();
+    await until(() => passwd().includes(`${g.gatewayId}:`), 20_000);
+  }, 60_000);
 
   it('that comes back empty (its persistence file lost): the workers reconnect and publish every light again', async () => {
     const g = await provision(request(fleet.workers[0].url), token, { id: 'ME-1', purgeSeconds: 600 });

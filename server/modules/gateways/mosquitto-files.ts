@@ -4,9 +4,15 @@
 // The gateways' entries are in the password file only while a worker of this service is subscribed.
 // Mosquitto 2.0 (Debian 12's 2.0.11, measured) keeps a persistent session and its queue across a restart
 // but not its shared subscriptions: what a gateway publishes after the restart and before a worker has
-// subscribed again is acknowledged to the gateway and dropped. So a worker that loses the broker writes the
-// file without the gateways (it is read if Mosquitto starts again), and a worker that has subscribed writes
-// them back and has Mosquitto reload it; meanwhile a gateway is refused and keeps its messages to send later.
+// subscribed again is acknowledged to the gateway and dropped. So the file a Mosquitto starts with holds the
+// gateways off, and a worker that has subscribed writes them back and has Mosquitto reload it; meanwhile a
+// gateway is refused and keeps its messages to send later.
+//
+// Several workers write the same files, so one must never undo another's: the file without the gateways is
+// written only while no Mosquitto runs from this directory (a running one keeps what it loaded, and the next
+// reload it is asked for comes after a write with the gateways), and writes are serialised across workers by
+// the caller (a PostgreSQL advisory lock, broker-link.ts). Otherwise a worker that lost its own connection
+// could write the file without the gateways just before another's reload, and Mosquitto would drop them all.
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Gateway } from '../../db/models/gateway';
@@ -41,27 +47,42 @@ const writeAtomically = (file: string, text: string, mode: number) => {
   renameSync(`${file}.tmp`, file);
 };
 
+/** The pid of the Mosquitto running from dir (its pid file names a live process), or null. */
+export function runningBrokerPid(dir: string): number | null {
+  const pidFile = join(dir, 'mosquitto.pid');
+  if (!existsSync(pidFile)) return null;
+  const pid = Number(readFileSync(pidFile, 'utf8').trim());
+  if (!Number.isInteger(pid) || pid <= 0) return null;
+  try {
+    process.kill(pid, 0);
+    return pid;
+  } catch (err) {
+    // EPERM: it runs, as another user.
+    return (err as NodeJS.ErrnoException).code === 'EPERM' ? pid : null;
+  }
+}
+
+/** What a write did: the gateways let in (and a running broker asked to reload), held off, or left as they were because a broker runs. */
+export type GateWrite = 'admitted' | 'heldOff' | 'leftWhileRunning';
+
 /**
  * Writes `passwd` and `acl` into dir. With the gateways admitted it signals the broker whose pid file is
- * there, if it runs, to reload them; holding them off it does not (a running broker keeps what it has; one
- * that starts again reads the file without them).
+ * there, if it runs, to reload them. Holding them off it writes only while no broker runs from dir (see the
+ * top of this file) and answers 'leftWhileRunning' otherwise; the caller tries again once that broker is gone.
  */
-export async function writeMosquittoFiles(dir: string, serviceUser: string, servicePassword: string, opts: { admitGateways: boolean }) {
+export async function writeMosquittoFiles(dir: string, serviceUser: string, servicePassword: string, opts: { admitGateways: boolean }): Promise<GateWrite> {
   mkdirSync(dir, { recursive: true });
+  if (!opts.admitGateways && runningBrokerPid(dir) !== null) return 'leftWhileRunning';
   writeAtomically(join(dir, 'passwd'), await passwordText(serviceUser, servicePassword, opts.admitGateways), 0o644);
   writeAtomically(join(dir, 'acl'), aclText(serviceUser), 0o644);
-  if (!opts.admitGateways) return;
-  const pidFile = join(dir, 'mosquitto.pid');
-  if (existsSync(pidFile)) {
-    const pid = Number(readFileSync(pidFile, 'utf8').trim());
-    if (pid > 0) {
-      try {
-        process.kill(pid, 'SIGHUP');
-      } catch {
-        /* not running: it reads the files when it starts */
-      }
-    }
+  if (!opts.admitGateways) return 'heldOff';
+  const pid = runningBrokerPid(dir);
+  try {
+    if (pid !== null) process.kill(pid, 'SIGHUP');
+  } catch {
+    /* it has just stopped: it reads the file when it starts again (held off by then: a worker lost it) */
   }
+  return 'admitted';
 }
 
 /** A Mosquitto configuration for the documented external-broker path (see README, "Scaling out"). */
