@@ -65,7 +65,15 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
   const files = (admitGateways: boolean) => {
     if (!dir) return writing;
     writing = writing
-      .then(() => sharedLock(() => writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, password, { admitGateways })))
+      .then(() =>
+        sharedLock(async () => {
+          // Decided when the write's turn comes, not when it was asked for: a worker that has lost the broker
+          // since (its turn can come late, behind a slow database) must not let the gateways into the file a
+          // restarted Mosquitto reads before any worker has subscribed again.
+          if (admitGateways && !subscribed) return null;
+          return writeMosquittoFiles(dir, config.MQTT_SERVICE_USERNAME, password, { admitGateways, stillAdmit: () => subscribed });
+        }),
+      )
       .catch((err: Error) => {
         log.error({ err: err.message, admitGateways }, 'Mosquitto password and ACL files not written');
         return null;

@@ -69,11 +69,19 @@ export type GateWrite = 'admitted' | 'heldOff' | 'leftWhileRunning';
  * Writes `passwd` and `acl` into dir. With the gateways admitted it signals the broker whose pid file is
  * there, if it runs, to reload them. Holding them off it writes only while no broker runs from dir (see the
  * top of this file) and answers 'leftWhileRunning' otherwise; the caller tries again once that broker is gone.
+ * Null: nothing written (`stillAdmit` said no).
  */
-export async function writeMosquittoFiles(dir: string, serviceUser: string, servicePassword: string, opts: { admitGateways: boolean }): Promise<GateWrite> {
+export async function writeMosquittoFiles(
+  dir: string,
+  serviceUser: string,
+  servicePassword: string,
+  opts: { admitGateways: boolean; /** Asked again once the gateways are read, just before the write (the caller may have lost the broker meanwhile). */ stillAdmit?: () => boolean },
+): Promise<GateWrite | null> {
   mkdirSync(dir, { recursive: true });
   if (!opts.admitGateways && runningBrokerPid(dir) !== null) return 'leftWhileRunning';
-  writeAtomically(join(dir, 'passwd'), await passwordText(serviceUser, servicePassword, opts.admitGateways), 0o644);
+  const text = await passwordText(serviceUser, servicePassword, opts.admitGateways);
+  if (opts.admitGateways && opts.stillAdmit && !opts.stillAdmit()) return null;
+  writeAtomically(join(dir, 'passwd'), text, 0o644);
   writeAtomically(join(dir, 'acl'), aclText(serviceUser), 0o644);
   if (!opts.admitGateways) return 'heldOff';
   const pid = runningBrokerPid(dir);
