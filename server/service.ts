@@ -37,10 +37,10 @@ import { mailRoutes } from './modules/mail/routes';
 import { startMail } from './modules/mail/start';
 import { depotRoutes, forecastRoutes } from './modules/forecast/routes';
 import { startForecastPoller } from './modules/forecast/start';
+import { startForecastFake } from './dev-fakes/forecast-fake';
 
 /** The advisory lock (two-key form) under which workers write the external broker's files. */
 const BROKER_FILES_LOCK = [0x4166, 1] as const;
-import { startForecastFake } from './dev-fakes/forecast-fake';
 
 export interface ServiceOptions {
   /** The built client to serve; none in API-only tests. */
