@@ -112,11 +112,18 @@ export async function openBrokerLink(config: Config, accept: Accept, log: Logger
     accept,
     log,
   });
+  // Subscribed, but the pid file in MOSQUITTO_DIR names no running Mosquitto: the directory is not the one this
+  // broker was started from, and the gateways cannot be let in. Said once per connection.
+  const admit = async () => {
+    if ((await files(true)) === 'noBrokerRunning' && subscribed) {
+      log.error({ dir }, 'subscribed to the external broker, but no Mosquitto runs from MOSQUITTO_DIR (its mosquitto.pid): gateways are not let in; start Mosquitto with the configuration written there');
+    }
+  };
   subscribed = true;
-  await files(true);
+  await admit();
   ext.onSubscribed(() => {
     subscribed = true;
-    void files(true);
+    void admit();
   });
   ext.onLost(() => {
     if (!subscribed) return;

@@ -8,11 +8,14 @@
 // gateways off, and a worker that has subscribed writes them back and has Mosquitto reload it; meanwhile a
 // gateway is refused and keeps its messages to send later.
 //
-// Several workers write the same files, so one must never undo another's: the file without the gateways is
+// Several workers write the same files, so one must never undo another's. The file without the gateways is
 // written only while no Mosquitto runs from this directory (a running one keeps what it loaded, and the next
-// reload it is asked for comes after a write with the gateways), and writes are serialised across workers by
-// the caller (a PostgreSQL advisory lock, broker-link.ts). Otherwise a worker that lost its own connection
-// could write the file without the gateways just before another's reload, and Mosquitto would drop them all.
+// reload it is asked for comes after a write with the gateways), the file with them only while one runs (the
+// next start must find them held off), and writes are serialised across workers by the caller (a PostgreSQL
+// advisory lock, broker-link.ts). Otherwise a worker that lost only its own connection could write the file
+// without the gateways just before another's reload, and Mosquitto would drop them all; or a worker that had
+// not yet noticed the broker's end could let them back into the file the next start reads. Whether one runs
+// is told by the pid file the written configuration has Mosquitto keep in this directory.
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Gateway } from '../../db/models/gateway';
@@ -62,13 +65,16 @@ export function runningBrokerPid(dir: string): number | null {
   }
 }
 
-/** What a write did: the gateways let in (and a running broker asked to reload), held off, or left as they were because a broker runs. */
-export type GateWrite = 'admitted' | 'heldOff' | 'leftWhileRunning';
+/**
+ * What a write did: the gateways let in (and the running broker asked to reload), held off, left in because a
+ * broker runs, or not let in because none runs.
+ */
+export type GateWrite = 'admitted' | 'heldOff' | 'leftWhileRunning' | 'noBrokerRunning';
 
 /**
- * Writes `passwd` and `acl` into dir. With the gateways admitted it signals the broker whose pid file is
- * there, if it runs, to reload them. Holding them off it writes only while no broker runs from dir (see the
- * top of this file) and answers 'leftWhileRunning' otherwise; the caller tries again once that broker is gone.
+ * Writes `passwd` and `acl` into dir. With the gateways admitted it writes only while a broker runs from dir
+ * (its pid file) and signals it to reload them. Holding them off it writes only while none runs, and answers
+ * 'leftWhileRunning' otherwise; the caller tries again once that broker is gone (see the top of this file).
  * Null: nothing written (`stillAdmit` said no).
  */
 export async function writeMosquittoFiles(
@@ -79,6 +85,7 @@ export async function writeMosquittoFiles(
 ): Promise<GateWrite | null> {
   mkdirSync(dir, { recursive: true });
   if (!opts.admitGateways && runningBrokerPid(dir) !== null) return 'leftWhileRunning';
+  if (opts.admitGateways && runningBrokerPid(dir) === null) return 'noBrokerRunning';
   const text = await passwordText(serviceUser, servicePassword, opts.admitGateways);
   if (opts.admitGateways && opts.stillAdmit && !opts.stillAdmit()) return null;
   writeAtomically(join(dir, 'passwd'), text, 0o644);
@@ -88,7 +95,7 @@ export async function writeMosquittoFiles(
   try {
     if (pid !== null) process.kill(pid, 'SIGHUP');
   } catch {
-    /* it has just stopped: it reads the file when it starts again (held off by then: a worker lost it) */
+    /* it has just stopped: the workers that lost it hold the gateways off again */
   }
   return 'admitted';
 }
