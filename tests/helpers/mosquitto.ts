@@ -112,8 +112,25 @@ export async function verdictWhenStored(fleet: MosquittoFleet, run: { truth: Tru
   if (missing.length || verdict.misses.length || verdict.falseFindings.length) {
     console.error(`worker logs on failure:\n${fleet.workers.map((w) => w.output()).join('\n---\n')}`);
     console.error(`stored sequence of the missed units' gateways:\n${await storedGaps(fleet.dbUrl, [...missing.map((m) => m.split(':')[0]), ...verdict.misses.map((m) => m.truth.gatewayId)])}`);
+    console.error(`the missed units' stored episodes and judgement counts:\n${await storedEpisodes(fleet.dbUrl, verdict.misses.map((m) => m.truth.unitId))}`);
   }
   return { ...verdict, notStored: missing };
+}
+
+/** The units' judgement counts and their episodes' rows around the missed ones, for a failure's report. */
+async function storedEpisodes(dbUrl: string, unitIds: string[]): Promise<string> {
+  const c = new pg.Client({ connectionString: dbUrl });
+  await c.connect();
+  try {
+    const units = await c.query('SELECT id, judged_version FROM units WHERE id = ANY($1)', [[...new Set(unitIds)]]);
+    const eps = await c.query(
+      `SELECT unit_id, id, boot, seq, key_off_at, outcome, settled_by, final, evidence FROM episodes WHERE unit_id = ANY($1) ORDER BY unit_id, stream, boot, seq`,
+      [[...new Set(unitIds)]],
+    );
+    return [...units.rows.map((u) => `${u.id}: judged ${u.judged_version} times`), ...eps.rows.map((e) => JSON.stringify(e))].join('\n');
+  } finally {
+    await c.end();
+  }
 }
 
 /** Each gateway's stored messages as runs of consecutive (boot, seq), so that a failure shows what never arrived. */
