@@ -6,11 +6,11 @@ import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 import { KEY_ON_SILENCE_MS, SAFE_SILENCE_MS, SETTLE_GRACE_MS } from '../../shared/protocol/limits';
 import { judgeWithWindow } from '../detection/window';
 import { stillWet } from '../detection/freeze';
-import { comparePositions, orderEvents, positionKey } from '../detection/positions';
+import { comparePositions, orderEvents, positionKey, positionOf } from '../detection/positions';
 import type { JudgeInput } from '../detection/types';
 import { emptyLiveUnitView, type LiveUnitView } from '../lib/context';
 import { latestEpisodes, loadDm1State, loadEvents } from './episode-store';
-import { applyWindow, newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
+import { newMemory, unitNow, type UnitMemory, type UnitProfile } from './unit-memory';
 
 // A unit's view is made after each commit that judged it and again for the board's push, and its times
 // change far less often than that (stateSince rarely, lastSeenAt once per message): the last texts made
@@ -149,9 +149,15 @@ export class UnitBook {
       now: this.clock(m, this.wallNow()),
       context: wet.length ? { state: null, lastAmbient: null, wet: wet.map((s) => s.episode) } : null,
     };
-    const { judgement, window: win } = judgeWithWindow(input, { validate: false });
+    const { judgement } = judgeWithWindow(input, { validate: false });
     m.state = judgement.state;
-    applyWindow(m, win, input.events);
+    // The window starts at the loaded events, not where this judgement would move it: the events may settle a
+    // stored episode differently from its row (behind an external broker a rebuild happens inside a batch
+    // whose own messages are among them), and only the next judgement, which compares with the stored
+    // episodes, writes that change. Moved on here, the episode would drop out of memory with its row unchanged.
+    m.windowStart = positionOf(first);
+    m.events = events;
+    m.context = input.context ?? null;
     const dm1 = await loadDm1State(this.sequelize, profile.unitId);
     if (dm1) {
       m.dm1 = Dm1Tracker.restore(dm1.snapshot);
