@@ -4,7 +4,7 @@ import type { Logger } from 'pino';
 import { Unit } from '../db/models/unit';
 import { Dm1Tracker } from '../../shared/j1939/dm1-tracker';
 import { KEY_ON_SILENCE_MS, SAFE_SILENCE_MS, SETTLE_GRACE_MS } from '../../shared/protocol/limits';
-import { judgeWithWindow } from '../detection/window';
+import { judgeInternals, judgementOf } from '../detection/judge-unit';
 import { stillWet } from '../detection/freeze';
 import { comparePositions, orderEvents, positionKey, positionOf } from '../detection/positions';
 import type { JudgeInput } from '../detection/types';
@@ -149,8 +149,8 @@ export class UnitBook {
       now: this.clock(m, this.wallNow()),
       context: wet.length ? { state: null, lastAmbient: null, wet: wet.map((s) => s.episode) } : null,
     };
-    const { judgement } = judgeWithWindow(input, { validate: false });
-    m.state = judgement.state;
+    // Only the state: the window is set below, so the judgement's own window is not worked out.
+    m.state = judgementOf(input, judgeInternals(input, { validate: false })).state;
     // The window starts at the loaded events, not where this judgement would move it: the events may settle a
     // stored episode differently from its row (behind an external broker a rebuild happens inside a batch
     // whose own messages are among them), and only the next judgement, which compares with the stored

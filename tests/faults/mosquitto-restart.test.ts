@@ -10,7 +10,7 @@ import pg from 'pg';
 import request from 'supertest';
 import { ADMIN } from '../helpers/service';
 import { provision, watchLight } from '../helpers/gateway';
-import { provisionBehindMosquitto, startMosquittoFleet, verdictWhenStored, type MosquittoFleet } from '../helpers/mosquitto';
+import { provisionBehindMosquitto, SERVICE_ACCOUNT, startMosquittoFleet, verdictWhenStored, type MosquittoFleet } from '../helpers/mosquitto';
 import { MessageSeq } from '../helpers/messages';
 import { until } from '../helpers/until';
 import { indicatorTopic, uplinkTopic } from '../../shared/protocol/topics';
@@ -116,7 +116,7 @@ describe('behind Mosquitto, a broker restart', () => {
     const db = await connectDb(fleet.dbUrl);
     cleanups.push(() => db.close());
     const passwd = () => readFileSync(join(fleet.dir, 'passwd'), 'utf8');
-    const holdOff = () => writeMosquittoFiles(fleet.dir, 'afterwatch-service', 'service-password-for-tests', { admitGateways: false });
+    const holdOff = () => writeMosquittoFiles(fleet.dir, SERVICE_ACCOUNT.user, SERVICE_ACCOUNT.password, { admitGateways: false });
     const g = await gateway('MH-1');
     expect(passwd()).toContain(`${g.gatewayId}:`);
     expect(await holdOff()).toBe('leftWhileRunning');
@@ -132,7 +132,7 @@ describe('behind Mosquitto, a broker restart', () => {
     expect(await holdOff()).toBe('heldOff');
     expect(passwd().trim().split('\n')).toEqual([expect.stringMatching(/^afterwatch-service:/)]);
     // A worker that has not yet noticed the broker's end, or whose turn came late, cannot let them back in.
-    const late = await writeMosquittoFiles(fleet.dir, 'afterwatch-service', 'service-password-for-tests', { admitGateways: true, stillAdmit: () => true });
+    const late = await writeMosquittoFiles(fleet.dir, SERVICE_ACCOUNT.user, SERVICE_ACCOUNT.password, { admitGateways: true, stillAdmit: () => true });
     expect(late).toBe('noBrokerRunning');
     expect(passwd()).not.toContain(`${g.gatewayId}:`);
     // Up again: the first worker to subscribe lets them back in.

@@ -19,6 +19,8 @@ import { connectGateway, provision, type TestGateway } from './gateway';
 import { until } from './until';
 
 export const MOSQUITTO = '/usr/sbin/mosquitto';
+/** The workers' account on the test broker (the service's default user name, this password). */
+export const SERVICE_ACCOUNT = { user: 'afterwatch-service', password: 'service-password-for-tests' } as const;
 
 export interface MosquittoFleet {
   dir: string;
@@ -44,7 +46,7 @@ export async function startMosquittoFleet(workerIds: string[], cleanups: (() => 
   writeFileSync(join(dir, 'mosquitto.conf'), mosquittoConf(dir, { host: '127.0.0.1', port, runAsRoot: process.getuid?.() === 0 }));
   const db = await createTestDatabase();
   cleanups.push(db.drop);
-  const env = { MQTT_URL: mqttUrl, MQTT_SERVICE_PASSWORD: 'service-password-for-tests', MOSQUITTO_DIR: dir };
+  const env = { MQTT_URL: mqttUrl, MQTT_SERVICE_PASSWORD: SERVICE_ACCOUNT.password, MOSQUITTO_DIR: dir };
 
   let broker: ChildProcess | null = null;
   const startBroker = () => {
